@@ -1,0 +1,106 @@
+import { apiKey } from "@better-auth/api-key";
+import { betterAuth, type BetterAuthPlugin } from "better-auth";
+import { drizzleAdapter } from "better-auth/adapters/drizzle";
+import { organization } from "better-auth/plugins";
+import { getDb } from "@/db";
+import { listMemberships } from "@/db/queries/members";
+import * as schema from "@/db/schema";
+import { getEnv } from "@/lib/env";
+import { sendInvitationMail, sendPasswordResetMail, sendVerificationMail } from "@/lib/mail/account-mail";
+import { KEY_PERMISSIONS, accessControl, roles } from "./permissions";
+
+export const API_KEY_PREFIX = "psk_";
+
+/** Pipeline keys push often: this many verifications a minute per key before 429. */
+export const API_KEY_REQUESTS_PER_MINUTE = 600;
+
+/** Builds the better-auth instance; the Next server adds `nextCookies()` as its last plugin. */
+export function createAuth(extraPlugins: BetterAuthPlugin[] = []) {
+  const env = getEnv();
+  const secure = env.SECURE_COOKIES ? env.SECURE_COOKIES === "true" : env.APP_URL.startsWith("https://");
+  return betterAuth({
+    appName: "Peeksafe",
+    baseURL: env.APP_URL,
+    secret: env.BETTER_AUTH_SECRET,
+    trustedOrigins: [env.APP_URL],
+    database: drizzleAdapter(getDb(), { provider: "pg", schema, usePlural: true }),
+    advanced: {
+      useSecureCookies: secure,
+      defaultCookieAttributes: { httpOnly: true, sameSite: "lax", secure },
+      database: { generateId: () => crypto.randomUUID() },
+    },
+    rateLimit: {
+      enabled: env.AUTH_RATE_LIMIT === "on",
+      storage: "database",
+      window: 60,
+      max: 100,
+      customRules: {
+        "/sign-in/email": { window: 60, max: 10 },
+        "/sign-up/email": { window: 60, max: 10 },
+        "/request-password-reset": { window: 60, max: 5 },
+      },
+    },
+    databaseHooks: {
+      session: {
+        create: {
+          // A new session opens in the user's first workspace, so every screen has one to show.
+          before: async (session) => {
+            if (session.activeOrganizationId) return { data: session };
+            const first = (await listMemberships(session.userId))[0];
+            return { data: { ...session, activeOrganizationId: first?.workspaceId ?? null } };
+          },
+        },
+      },
+    },
+    emailAndPassword: {
+      enabled: true,
+      requireEmailVerification: true,
+      minPasswordLength: 10,
+      sendResetPassword: async ({ user, url }) => {
+        await sendPasswordResetMail(user.email, url);
+      },
+    },
+    emailVerification: {
+      sendOnSignUp: true,
+      autoSignInAfterVerification: true,
+      sendVerificationEmail: async ({ user, url }) => {
+        await sendVerificationMail(user.email, url);
+      },
+    },
+    plugins: [
+      organization({
+        ac: accessControl,
+        roles,
+        creatorRole: "admin",
+        invitationExpiresIn: 7 * 24 * 60 * 60,
+        sendInvitationEmail: async ({ email, inviter, organization: workspace, role, id }) => {
+          await sendInvitationMail({
+            to: email,
+            inviter: inviter.user.name || inviter.user.email,
+            workspace: workspace.name,
+            role,
+            url: `${env.APP_URL}/invitations/${id}`,
+          });
+        },
+        schema: {
+          organization: {
+            additionalFields: {
+              timeZone: { type: "string", required: false, defaultValue: "UTC", input: true },
+            },
+          },
+        },
+      }),
+      apiKey({
+        references: "organization",
+        defaultPrefix: API_KEY_PREFIX,
+        apiKeyHeaders: ["x-api-key"],
+        enableSessionForAPIKeys: false,
+        rateLimit: { enabled: true, timeWindow: 60_000, maxRequests: API_KEY_REQUESTS_PER_MINUTE },
+        permissions: { defaultPermissions: { ...KEY_PERMISSIONS.ingest, ingest: [...KEY_PERMISSIONS.ingest.ingest] } },
+      }),
+      ...extraPlugins,
+    ],
+  });
+}
+
+export type Auth = ReturnType<typeof createAuth>;

@@ -1,0 +1,71 @@
+import { getMembership } from "@/db/queries/members";
+import { getEnv } from "@/lib/env";
+import { ForbiddenError, RateLimitedError, UnauthorizedError } from "@/lib/errors";
+import { roleAllows, type Permission } from "./permissions";
+import { getAuth } from "./server";
+
+/** Who is calling a route handler: a signed-in member, or a workspace's pipeline key. */
+export type Caller =
+  | { kind: "user"; userId: string; email: string; workspaceId: string; role: string }
+  | { kind: "key"; keyId: string; workspaceId: string; permissions: Record<string, string[]> };
+
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+function bearerKey(request: Request): string | null {
+  const header = request.headers.get("authorization");
+  if (header?.toLowerCase().startsWith("bearer ")) return header.slice(7).trim() || null;
+  return request.headers.get("x-api-key");
+}
+
+function keyAllows(granted: Record<string, string[]>, permission: Permission): boolean {
+  return Object.entries(permission).every(([resource, actions]) =>
+    (actions ?? []).every((action) => granted[resource]?.includes(action) ?? false),
+  );
+}
+
+async function authorizeKey(key: string, permission: Permission): Promise<Caller> {
+  const result = await getAuth().api.verifyApiKey({ body: { key } });
+  if (!result.valid || !result.key) {
+    const code = result.error?.code;
+    if (code === "RATE_LIMITED") {
+      const details = (result.error as { details?: { tryAgainIn?: number } }).details;
+      throw new RateLimitedError("This API key sent too many requests.", Math.max(1, Math.ceil((details?.tryAgainIn ?? 1000) / 1000)));
+    }
+    throw new UnauthorizedError("The API key is missing, unknown or revoked.");
+  }
+  const granted = (result.key.permissions ?? {}) as Record<string, string[]>;
+  if (!keyAllows(granted, permission)) throw new ForbiddenError("This API key does not carry the permission this route needs.");
+  return { kind: "key", keyId: result.key.id, workspaceId: result.key.referenceId, permissions: granted };
+}
+
+/**
+ * Authorizes a route handler call: an API key (Bearer or x-api-key) when `allowKey` is set, else the
+ * session cookie. State-changing calls with a cookie must come from our own origin (CSRF).
+ */
+export async function authorizeRequest(
+  request: Request,
+  permission: Permission,
+  options: { allowKey?: boolean; workspaceId?: string } = {},
+): Promise<Caller> {
+  const key = bearerKey(request);
+  if (key) {
+    if (!options.allowKey) throw new ForbiddenError("This route does not accept API keys; sign in instead.");
+    const caller = await authorizeKey(key, permission);
+    if (options.workspaceId && options.workspaceId !== caller.workspaceId) throw new ForbiddenError();
+    return caller;
+  }
+  if (!SAFE_METHODS.has(request.method)) {
+    const origin = request.headers.get("origin");
+    if (origin !== new URL(getEnv().APP_URL).origin) {
+      throw new ForbiddenError("State-changing requests with a session must come from the Peeksafe origin.");
+    }
+  }
+  const session = await getAuth().api.getSession({ headers: request.headers });
+  if (!session) throw new UnauthorizedError();
+  const workspaceId = options.workspaceId ?? session.session.activeOrganizationId;
+  if (!workspaceId) throw new ForbiddenError("Choose a workspace first.");
+  const membership = await getMembership(workspaceId, session.user.id);
+  if (!membership) throw new ForbiddenError();
+  if (!roleAllows(membership.role, permission)) throw new ForbiddenError();
+  return { kind: "user", userId: session.user.id, email: session.user.email, workspaceId, role: membership.role };
+}

@@ -1,0 +1,114 @@
+import { ZodError } from "zod";
+import { DomainError, RateLimitedError, type FieldProblem } from "@/lib/errors";
+
+/** RFC 9457 problem details. */
+export interface Problem {
+  type: string;
+  title: string;
+  status: number;
+  detail: string;
+  instance?: string;
+  errors?: FieldProblem[];
+  [extension: string]: unknown;
+}
+
+const PROBLEM_TYPE_BASE = "https://peeksafe.local/problems/";
+
+export function problemResponse(problem: Problem, headers: Record<string, string> = {}): Response {
+  return new Response(JSON.stringify(problem), {
+    status: problem.status,
+    headers: { "content-type": "application/problem+json", "cache-control": "no-store", ...headers },
+  });
+}
+
+/** Zod issues as field problems with JSON pointers (`/rows/3/units`). */
+export function zodProblems(error: ZodError, rowPath?: string): FieldProblem[] {
+  return error.issues.map((issue) => {
+    const pointer = "/" + issue.path.map(String).join("/");
+    const rowIndex = rowPath && issue.path[0] === rowPath && typeof issue.path[1] === "number" ? issue.path[1] : undefined;
+    return { ...(rowIndex !== undefined ? { row: rowIndex } : {}), pointer: pointer === "/" ? "" : pointer, message: issue.message };
+  });
+}
+
+function slug(title: string): string {
+  return title.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/(^-|-$)/g, "");
+}
+
+/** Maps any thrown value to a problem response, in one place; unexpected errors are logged and hidden. */
+export function toResponse(error: unknown, instance?: string): Response {
+  if (error instanceof ZodError) {
+    return problemResponse({
+      type: `${PROBLEM_TYPE_BASE}invalid-input`,
+      title: "Invalid input",
+      status: 422,
+      detail: "The request does not match the expected shape.",
+      instance,
+      errors: zodProblems(error, "rows"),
+    });
+  }
+  if (error instanceof DomainError) {
+    const headers: Record<string, string> = {};
+    if (error instanceof RateLimitedError) headers["retry-after"] = String(error.retryAfterSeconds);
+    return problemResponse(
+      {
+        type: `${PROBLEM_TYPE_BASE}${slug(error.title)}`,
+        title: error.title,
+        status: error.status,
+        detail: error.message,
+        instance,
+        ...error.extra,
+      },
+      headers,
+    );
+  }
+  console.error("unexpected error", error);
+  return problemResponse({
+    type: `${PROBLEM_TYPE_BASE}internal`,
+    title: "Internal error",
+    status: 500,
+    detail: "Something went wrong on our side; the request was not applied.",
+    instance,
+  });
+}
+
+/** Parses a JSON body, turning malformed JSON into a 400 problem rather than a 500. */
+export async function readJson(request: Request, maxBytes: number): Promise<unknown> {
+  const length = Number(request.headers.get("content-length") ?? "0");
+  if (length > maxBytes) throw new PayloadTooLarge(maxBytes);
+  const text = await readLimited(request, maxBytes);
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new MalformedJson();
+  }
+}
+
+class PayloadTooLarge extends DomainError {
+  constructor(maxBytes: number) {
+    super(`The body is larger than ${maxBytes} bytes.`, 413, "Payload too large");
+  }
+}
+
+class MalformedJson extends DomainError {
+  constructor() {
+    super("The body is not valid JSON.", 400, "Malformed JSON");
+  }
+}
+
+async function readLimited(request: Request, maxBytes: number): Promise<string> {
+  if (!request.body) return "";
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel();
+      throw new PayloadTooLarge(maxBytes);
+    }
+    chunks.push(value);
+  }
+  return new TextDecoder("utf-8", { fatal: false }).decode(Buffer.concat(chunks));
+}
