@@ -1,7 +1,7 @@
 import path from "node:path";
 import { defineConfig } from "vitest/config";
 
-const alias = { "@": path.resolve(__dirname) };
+const alias = { "@": path.resolve(import.meta.dirname) };
 
 export default defineConfig({
   resolve: { alias },
@@ -13,6 +13,25 @@ export default defineConfig({
           name: "unit",
           include: ["tests/sequential/**/*.test.ts", "tests/cli/**/*.test.ts", "tests/lib/**/*.test.ts"],
           environment: "node",
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "integration",
+          include: [
+            "tests/db/**/*.test.ts",
+            "tests/api/**/*.test.ts",
+            "tests/actions/**/*.test.ts",
+            "tests/cron/**/*.test.ts",
+            "tests/e2e/**/*.test.ts",
+          ],
+          environment: "node",
+          globalSetup: ["tests/setup/global-setup.ts"],
+          setupFiles: ["tests/setup/integration-env.ts"],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          maxWorkers: 2,
         },
       },
     ],

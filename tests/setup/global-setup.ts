@@ -1,0 +1,59 @@
+import { randomBytes } from "node:crypto";
+import { chmodSync, mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import type { TestProject } from "vitest/node";
+import { buildApp, buildIsStale, startApp } from "../../scripts/lib/app-server";
+import { startMailCatcher } from "../../scripts/lib/mail-catcher";
+import { migrateDatabase } from "../../scripts/lib/migrate";
+import { freePort, startCluster } from "../../scripts/lib/postgres-cluster";
+
+declare module "vitest" {
+  export interface ProvidedContext {
+    appUrl: string;
+    databaseUrl: string;
+    mailUrl: string;
+    smtpUrl: string;
+    authSecret: string;
+  }
+}
+
+/**
+ * One throwaway world per test run: PostgreSQL in /dev/shm (no fsync), the mail catcher and the
+ * production build of the app, all on loopback ports picked at random; torn down at the end.
+ */
+export default async function setup(project: TestProject) {
+  const shm = os.platform() === "linux" ? "/dev/shm" : os.tmpdir();
+  const root = mkdtempSync(path.join(shm, "peeksafe-test-"));
+  chmodSync(root, 0o755);
+  const cluster = await startCluster({ root: path.join(root, "pg"), port: await freePort(), database: "peeksafe", fast: true });
+  await migrateDatabase(cluster.url);
+
+  const mail = await startMailCatcher({ smtpPort: await freePort(), httpPort: await freePort() });
+  const appPort = await freePort();
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    DATABASE_URL: cluster.url,
+    BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
+    APP_URL: `http://127.0.0.1:${appPort}`,
+    SMTP_URL: `smtp://127.0.0.1:${mail.smtpPort}`,
+    MAIL_CATCHER_URL: `http://127.0.0.1:${mail.httpPort}`,
+    AUTH_RATE_LIMIT: "off",
+    LOG_LEVEL: "warn",
+  };
+  if (buildIsStale()) buildApp(env);
+  const app = await startApp({ port: appPort, env, quiet: true });
+
+  project.provide("appUrl", app.url);
+  project.provide("databaseUrl", cluster.url);
+  project.provide("mailUrl", env.MAIL_CATCHER_URL!);
+  project.provide("smtpUrl", env.SMTP_URL!);
+  project.provide("authSecret", env.BETTER_AUTH_SECRET!);
+
+  return async () => {
+    await app.stop();
+    await mail.stop();
+    cluster.stop();
+    rmSync(root, { recursive: true, force: true });
+  };
+}
