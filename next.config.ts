@@ -17,6 +17,8 @@ const contentSecurityPolicy = [
 ].join("; ");
 
 const nextConfig: NextConfig = {
+  // A separate build folder per checkout or engineer (NEXT_DIST_DIR) keeps parallel builds apart.
+  distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
   reactStrictMode: true,
   serverExternalPackages: ["pg", "pino", "smtp-server", "mailparser", "nodemailer"],
