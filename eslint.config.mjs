@@ -6,7 +6,7 @@ const config = [
   ...nextVitals,
   ...nextTypescript,
   {
-    ignores: [".next/**", "node_modules/**", ".data/**", "drizzle/**", "next-env.d.ts", "coverage/**", "bench/results/**"],
+    ignores: [".next/**", ".next-*/**", "node_modules/**", ".data/**", "drizzle/**", "next-env.d.ts", "coverage/**", "bench/results/**"],
   },
   {
     plugins: { drizzle },
