@@ -36,4 +36,10 @@ export * from "./look-fractions";
 export * from "./analyze-campaign";
 export * from "./equal-fractions";
 export * from "./naive-peeking-error";
-// export * from "./spending-boundaries"; (enabled once the file lands)
+export * from "./spending-boundaries";
+export * from "./alpha-spending";
+export * from "./recursive-integration";
+export * from "./recursive-integration-grid";
+export * from "./recursive-integration-crossing";
+export * from "./recursive-integration-exit";
+export * from "./recursive-integration-resolution";
