@@ -114,3 +114,30 @@ export type Alert = typeof alerts.$inferSelect;
 export type AlertDelivery = typeof alertDeliveries.$inferSelect;
 export type Subscription = typeof subscriptions.$inferSelect;
 export type AlertRule = typeof alertRules.$inferSelect;
+
+/** One daily digest sent to one person for one workspace and day: a re-run of the digest job sends nothing twice. */
+export const digestDeliveries = pgTable(
+  "digest_deliveries",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    workspaceId: text("workspace_id")
+      .notNull()
+      .references(() => organizations.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    /** The workspace-local day the digest covers. */
+    day: date("day").notNull(),
+    sentAt: timestamp("sent_at", { withTimezone: true }),
+    attempts: integer("attempts").notNull().default(0),
+    lastError: text("last_error"),
+    ...timestamps,
+  },
+  (table) => [
+    uniqueIndex("digest_deliveries_workspace_id_user_id_day_uidx").on(table.workspaceId, table.userId, table.day),
+    index("digest_deliveries_workspace_id_idx").on(table.workspaceId),
+    index("digest_deliveries_user_id_idx").on(table.userId),
+  ],
+);
+
+export type DigestDelivery = typeof digestDeliveries.$inferSelect;
