@@ -17,7 +17,8 @@ export interface NaivePeekingOptions {
  *
  * This is the repeated-significance-test error of Armitage, McPherson & Rowe, computed exactly
  * (to quadrature accuracy, about 1e-8 for 100 looks) by recursive numerical integration, not by
- * simulation.
+ * simulation. Accuracy holds while consecutive looks differ by Δt/t ≥ about 2e-6 (see
+ * recursive-integration-resolution.ts); looks closer than that should be merged by the caller.
  *
  * Reference: Armitage, McPherson & Rowe (1969), "Repeated significance tests on accumulating
  * data", *JRSS A* 132, 235–244, https://doi.org/10.2307/2343787; Jennison & Turnbull (2000),
