@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { ThemeScript } from "@/components/shell/theme-script";
 import "./globals.css";
 
 const sans = localFont({ src: "./fonts/geist-sans.woff2", variable: "--font-sans", display: "swap", weight: "100 900" });
@@ -15,6 +16,9 @@ export const viewport: Viewport = { width: "device-width", initialScale: 1 };
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
     <html lang="en" className={`${sans.variable} ${mono.variable}`} suppressHydrationWarning>
+      <head>
+        <ThemeScript />
+      </head>
       <body className="min-h-screen font-sans">{children}</body>
     </html>
   );
