@@ -39,7 +39,7 @@ export function obrienFlemingSpending(informationFraction: number, significanceL
   if (informationFraction === 1) return significanceLevel;
   const perSide = significanceLevel / sides;
   const critical = -normalQuantile(perSide / 2);
-  return 2 * sides * normalSurvival(critical / Math.sqrt(informationFraction));
+  return Math.min(significanceLevel, 2 * sides * normalSurvival(critical / Math.sqrt(informationFraction)));
 }
 
 /**
@@ -60,7 +60,7 @@ export function obrienFlemingSpending(informationFraction: number, significanceL
 export function pocockSpending(informationFraction: number, significanceLevel: number): number {
   validate("pocockSpending", informationFraction, significanceLevel);
   if (informationFraction === 1) return significanceLevel;
-  return significanceLevel * Math.log1p((Math.E - 1) * informationFraction);
+  return Math.min(significanceLevel, significanceLevel * Math.log1p((Math.E - 1) * informationFraction));
 }
 
 /**
@@ -86,9 +86,11 @@ export function hwangShihDeCaniSpending(informationFraction: number, significanc
     throw new RangeError(`hwangShihDeCaniSpending requires a finite non-zero gamma, got ${gamma}`);
   }
   if (informationFraction === 1) return significanceLevel;
-  if (gamma > 0) return (significanceLevel * Math.expm1(-gamma * informationFraction)) / Math.expm1(-gamma);
+  if (gamma > 0) {
+    return Math.min(significanceLevel, (significanceLevel * Math.expm1(-gamma * informationFraction)) / Math.expm1(-gamma));
+  }
   // γ < 0: divide through by e^(−γ) so a steep γ cannot overflow.
   const steepness = -gamma;
   const ratio = Math.expm1(-steepness * informationFraction) / Math.expm1(-steepness);
-  return significanceLevel * Math.exp(steepness * (informationFraction - 1)) * ratio;
+  return Math.min(significanceLevel, significanceLevel * Math.exp(steepness * (informationFraction - 1)) * ratio);
 }
