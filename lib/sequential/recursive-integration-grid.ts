@@ -15,7 +15,8 @@ export interface IntegrationGrid {
  * ±(3 + 4·log(resolution)) and equal steps of 1.5/resolution on [−3, 3], centred on the mean of
  * the z statistic (0 under no effect). Points outside (lower, upper) are dropped, the finite
  * bounds become end points, and the midpoint of every interval is added, so Simpson's rule
- * applies on each interval. A symmetric region gives a grid symmetric about 0.
+ * applies on each interval. A symmetric region with center 0 gives a grid that is an exact
+ * mirror image about 0 (the symmetry the two-sided recursion relies on).
  *
  * Reference: Jennison & Turnbull (2000), *Group Sequential Methods with Applications to Clinical
  * Trials*, Chapman & Hall/CRC, §19.2 (grid and Simpson's rule). Assumes a normal z statistic
@@ -41,21 +42,29 @@ export function integrationGrid(lower: number, upper: number, resolution: number
     throw new RangeError(`integrationGrid requires a finite center, got ${center}`);
   }
   const r = resolution;
-  const ends: number[] = [];
-  if (Number.isFinite(lower)) ends.push(lower);
-  for (let i = 1; i <= 6 * r - 1; i += 1) {
-    let x: number;
-    if (i < r) x = -3 - 4 * Math.log(r / i);
-    else if (i <= 5 * r) x = -3 + (3 * (i - r)) / (2 * r);
-    else x = 3 + 4 * Math.log(r / (6 * r - i));
-    x += center;
-    if (x > lower && x < upper) ends.push(x);
+  // Base points closer to a bound than this are dropped, so no sliver interval is left.
+  const sliver = 1e-9 / r;
+  const inside = (x: number) => x > lower + sliver && x < upper - sliver;
+  const base = (i: number): number => {
+    if (i < r) return -3 - 4 * Math.log(r / i);
+    if (i <= 5 * r) return -3 + (3 * (i - r)) / (2 * r);
+    return 3 + 4 * Math.log(r / (6 * r - i));
+  };
+  let ends: number[] = [];
+  if (center === 0 && lower === -upper) {
+    // Built as a mirror image so that node j and node m − 1 − j are exact negatives.
+    const half: number[] = [];
+    for (let i = 3 * r + 1; i <= 6 * r - 1; i += 1) if (inside(base(i))) half.push(base(i));
+    if (Number.isFinite(upper)) half.push(upper);
+    ends = [...half.map((x) => -x).reverse(), 0, ...half];
+  } else {
+    if (Number.isFinite(lower)) ends.push(lower);
+    for (let i = 1; i <= 6 * r - 1; i += 1) if (inside(base(i) + center)) ends.push(base(i) + center);
+    if (Number.isFinite(upper)) ends.push(upper);
   }
-  if (Number.isFinite(upper)) ends.push(upper);
   if (ends.length < 2) {
     // A region narrower than one step of the base grid: its own two ends.
-    ends.length = 0;
-    ends.push(Number.isFinite(lower) ? lower : upper - 1, Number.isFinite(upper) ? upper : lower + 1);
+    ends = [Number.isFinite(lower) ? lower : upper - 1, Number.isFinite(upper) ? upper : lower + 1];
   }
   const intervals = ends.length - 1;
   const points = new Float64Array(2 * intervals + 1);
