@@ -2,11 +2,10 @@ import { createHash } from "node:crypto";
 import type { CampaignDto } from "@/db/queries/campaigns";
 import { parseCountsCsv } from "@/lib/counts-csv";
 import { PayloadTooLargeError, ValidationError, type FieldProblem } from "@/lib/errors";
-import { ingestBodySchema, MAX_INGEST_ROWS, type IngestRow } from "@/lib/validation/ingest";
+import { ingestBodySchema, MAX_CSV_BYTES, MAX_INGEST_ROWS, type IngestRow } from "@/lib/validation/ingest";
 import { ingestBatch, type IngestOutcome } from "./ingest-batch";
 
-/** Largest CSV upload accepted, in bytes (5,000 rows fit in well under this). */
-export const MAX_CSV_BYTES = 1_048_576;
+export { MAX_CSV_BYTES };
 
 /**
  * The CSV upload's confirm step: parses the file with the same parser the browser previewed with,

@@ -5,6 +5,8 @@ import { ARM_KEY_PATTERN, calendarDaySchema, campaignReferenceSchema } from "./c
 export const MAX_INGEST_ROWS = 5_000;
 /** At most this many bytes in one ingest body (5,000 rows of about 150 bytes, with room to spare). */
 export const MAX_INGEST_BYTES = 1_048_576;
+/** Largest CSV upload accepted, in bytes (5,000 rows fit in well under this). */
+export const MAX_CSV_BYTES = 1_048_576;
 
 const count = (name: string) =>
   z
