@@ -1,6 +1,5 @@
 import type { Interval } from "./types";
-import { requireFinite } from "./require-finite";
-import { requireProbability } from "./require-probability";
+import { alwaysValidSequenceArrays } from "./always-valid-sequence-arrays";
 
 /** One look: the estimate and its variance, or null when the look has nothing to estimate. */
 export type SequenceLook = { readonly estimate: number; readonly variance: number } | null;
@@ -17,8 +16,7 @@ export interface SequenceStep {
  * Runs the mSPRT over a series of looks: always-valid p-value `p_t = min(1, p_{t−1}, 1/Λ_t)` and the
  * confidence sequence `Δ_t ± h_t`, intersected with every earlier one (so it never widens).
  * A null look (not estimable yet, e.g. zero variance) repeats the previous step. Uses the closed forms of
- * {@link msprtLogLikelihoodRatio} and {@link confidenceSequenceHalfWidth}; steps whose interval did not
- * change share one (read-only) interval array.
+ * {@link msprtLogLikelihoodRatio} and {@link confidenceSequenceHalfWidth} (via {@link alwaysValidSequenceArrays}).
  *
  * Reference: Johari, Koomen, Pekelis & Walsh (2022), *Operations Research* 70(3) (the running
  * minimum and intersection keep the guarantee: P(∃t: θ ∉ CS_t) ≤ α). Two-sided by construction.
@@ -32,36 +30,14 @@ export interface SequenceStep {
  * @example alwaysValidSequence([{ estimate: 0.5, variance: 0.01 }], { tau: 0.2, significanceLevel: 0.05 })[0].p // ≈ 1.015e-4
  */
 export function alwaysValidSequence(looks: readonly SequenceLook[], options: { tau: number; significanceLevel: number }): SequenceStep[] {
-  requireFinite("alwaysValidSequence", "tau", options.tau);
-  if (options.tau <= 0) throw new RangeError(`alwaysValidSequence requires tau > 0, got ${options.tau}`);
-  requireProbability("alwaysValidSequence", "significanceLevel", options.significanceLevel);
-  const tauSquared = options.tau * options.tau;
-  const twiceLogInverseLevel = 2 * Math.log(1 / options.significanceLevel);
-  const steps: SequenceStep[] = new Array(looks.length);
-  let p = 1;
-  let lower = -Infinity;
-  let upper = Infinity;
-  let cs: Interval = [lower, upper];
-  for (let i = 0; i < looks.length; i++) {
-    const look = looks[i];
-    if (look !== null) {
-      const { estimate, variance } = look;
-      if (!Number.isFinite(estimate) || !(variance > 0) || !Number.isFinite(variance)) {
-        throw new RangeError(`alwaysValidSequence requires each look to have a finite estimate and a variance > 0, got ${estimate} and ${variance} at look ${i}`);
-      }
-      // Same closed forms as msprtLogLikelihoodRatio and confidenceSequenceHalfWidth, sharing log(1 + τ²/V).
-      const logVarianceRatio = Math.log1p(tauSquared / variance);
-      const total = variance + tauSquared;
-      const logLikelihoodRatio = -0.5 * logVarianceRatio + (tauSquared * estimate * estimate) / (2 * variance * total);
-      p = Math.min(p, Math.exp(-logLikelihoodRatio));
-      const half = Math.sqrt(((variance * total) / tauSquared) * (logVarianceRatio + twiceLogInverseLevel));
-      if (estimate - half > lower || estimate + half < upper) {
-        lower = Math.max(lower, estimate - half);
-        upper = Math.min(upper, estimate + half);
-        cs = [lower, upper];
-      }
-    }
-    steps[i] = { p, cs };
-  }
-  return steps;
+  const estimates = new Float64Array(looks.length);
+  const variances = new Float64Array(looks.length);
+  looks.forEach((look, i) => {
+    if (look === null) return;
+    if (!(look.variance > 0)) throw new RangeError(`alwaysValidSequence requires each look to have a finite estimate and a variance > 0, got ${look.estimate} and ${look.variance} at look ${i}`);
+    estimates[i] = look.estimate;
+    variances[i] = look.variance;
+  });
+  const result = alwaysValidSequenceArrays(estimates, variances, options);
+  return Array.from(result.p, (p, i) => ({ p, cs: [result.lower[i], result.upper[i]] as Interval }));
 }

@@ -1,8 +1,7 @@
 import type { ArmTotals, Call, CampaignPlan, DailyCountRow, Interval } from "./types";
 import type { HealthIssue } from "./check-daily-counts";
 import type { SampleSize } from "./sample-size-two-proportions";
-import type { SequenceLook } from "./always-valid-sequence";
-import { alwaysValidSequence } from "./always-valid-sequence";
+import { alwaysValidSequenceArrays } from "./always-valid-sequence-arrays";
 import { bonferroniLevel } from "./bonferroni-level";
 import { checkDailyCounts } from "./check-daily-counts";
 import { dayNumber } from "./day-number";
@@ -18,7 +17,7 @@ import { requireProbability } from "./require-probability";
 import { requireSides } from "./require-sides";
 import { sampleRatioChiSquareStatistic } from "./sample-ratio-chi-square-unchecked";
 import { tauFromPlan } from "./tau-from-plan";
-import { twoSampleZTestUnchecked } from "./two-sample-z-test-unchecked";
+import { createZTestScratch, twoSampleZTestUnchecked } from "./two-sample-z-test-unchecked";
 import { armTotalsProblem } from "./arm-totals-problem";
 import { normalQuantile } from "./normal-distribution";
 
@@ -36,13 +35,14 @@ export const HEALTH_DEFAULTS = {
 /** One treatment arm's statistics on one day. Null numbers: not estimable yet (too few units). */
 export interface ArmDayResult {
   readonly lift: { readonly absolute: number | null; readonly relative: number | null };
-  /** Fixed-horizon z-test: pooled z and p (the naive peek before the horizon), unpooled interval. */
+  /** Fixed-horizon z-test: pooled z and p (the naive peek before the horizon), unpooled intervals at α/k. */
   readonly fixed: {
     readonly z: number | null;
     readonly p: number | null;
     readonly ci: Interval | null;
     readonly relativeCi: Interval | null;
-    readonly unpooled: { readonly z: number; readonly p: number } | null;
+    /** z with the unpooled standard error (its p is left to {@link twoSampleZTest}). */
+    readonly zUnpooled: number | null;
   };
   /** Always-valid: mSPRT p-value and running-intersected confidence sequences (absolute, relative). */
   readonly sequential: { readonly p: number; readonly cs: Interval; readonly relativeCs: Interval | null };
@@ -178,90 +178,115 @@ export function analyzeCampaign(
 
   const issues = checkDailyCounts(rows, { metric: plan.metric, arms: keys });
   const armIndex = new Map(keys.map((key, index) => [key, index]));
+  const armCount = keys.length;
+  const rowDays = new Float64Array(rows.length);
+  const rowArms = new Int32Array(rows.length).fill(-1);
   let firstDay = Infinity;
   let lastDay = -Infinity;
-  const parsed: { day: number; arm: number; row: DailyCountRow }[] = [];
-  for (const row of rows) {
+  for (let r = 0; r < rows.length; r++) {
+    const row = rows[r];
     const day = dayNumber(row?.date);
     const arm = armIndex.get(row?.arm);
     if (day === null || arm === undefined || !Number.isFinite(row.n) || !Number.isFinite(row.sum) || !Number.isFinite(row.sumSq)) continue;
-    parsed.push({ day, arm, row });
+    rowDays[r] = day;
+    rowArms[r] = arm;
     if (day < firstDay) firstDay = day;
     if (day > lastDay) lastDay = day;
   }
-  const dayCount = parsed.length === 0 ? 0 : lastDay - firstDay + 1;
+  const dayCount = firstDay === Infinity ? 0 : lastDay - firstDay + 1;
   const dates: string[] = new Array(dayCount);
-  for (const { day, row } of parsed) dates[day - firstDay] = row.date;
-  const armCount = keys.length;
   const added = new Float64Array(dayCount * armCount * 3);
-  for (const { day, arm, row } of parsed) {
-    const offset = ((day - firstDay) * armCount + arm) * 3;
-    added[offset] += row.n;
-    added[offset + 1] += row.sum;
-    added[offset + 2] += row.sumSq;
+  for (let r = 0; r < rows.length; r++) {
+    if (rowArms[r] < 0) continue;
+    const d = rowDays[r] - firstDay;
+    const offset = (d * armCount + rowArms[r]) * 3;
+    added[offset] += rows[r].n;
+    added[offset + 1] += rows[r].sum;
+    added[offset + 2] += rows[r].sumSq;
+    dates[d] = rows[r].date;
   }
   const issueDays = issues.map((issue) => (issue.date === null ? -Infinity : dayNumber(issue.date)! - firstDay));
 
-  const totalsByDay: ArmTotals[][] = [];
+  // Cumulative totals per day and arm, and whether they are valid (bad rows make them invalid, not thrown).
+  const totalsByDay: ArmTotals[][] = new Array(dayCount);
+  const valid = new Uint8Array(dayCount * armCount);
   const running = new Float64Array(armCount * 3);
   for (let d = 0; d < dayCount; d++) {
-    const today: ArmTotals[] = [];
+    const today: ArmTotals[] = new Array(armCount);
     for (let a = 0; a < armCount; a++) {
       const offset = (d * armCount + a) * 3;
       running[a * 3] += added[offset];
       running[a * 3 + 1] += added[offset + 1];
       running[a * 3 + 2] += added[offset + 2];
-      today.push({ n: running[a * 3], sum: running[a * 3 + 1], sumSq: running[a * 3 + 2] });
+      today[a] = { n: running[a * 3], sum: running[a * 3 + 1], sumSq: running[a * 3 + 2] };
+      valid[d * armCount + a] = armTotalsProblem(today[a], plan.metric) === null ? 1 : 0;
     }
-    totalsByDay.push(today);
+    totalsByDay[d] = today;
   }
-  const valid = totalsByDay.map((today) => today.map((totals) => totalsAreValid(totals, plan.metric)));
   const minimumUnits = plan.metric === "conversion" ? 1 : 2;
   const quantile = normalQuantile(1 - armSignificanceLevel / plan.sides);
   const holdoutIndex = armIndex.get(HOLDOUT_ARM)!;
+  const scratch = createZTestScratch();
 
   const perArm = treatmentArms.map((arm) => {
     const index = armIndex.get(arm)!;
-    const fixed: ArmDayResult["fixed"][] = [];
-    const lifts: ArmDayResult["lift"][] = [];
-    const looks: SequenceLook[] = [];
-    const relativeLooks: SequenceLook[] = [];
+    const lifts: ArmDayResult["lift"][] = new Array(dayCount);
+    const fixed: ArmDayResult["fixed"][] = new Array(dayCount);
+    const estimates = new Float64Array(dayCount);
+    const variances = new Float64Array(dayCount);
+    const logRatios = new Float64Array(dayCount);
+    const logRatioVariances = new Float64Array(dayCount);
     for (let d = 0; d < dayCount; d++) {
       const treatment = totalsByDay[d][index];
       const holdout = totalsByDay[d][holdoutIndex];
-      if (!valid[d][index] || !valid[d][holdoutIndex] || treatment.n < minimumUnits || holdout.n < minimumUnits) {
-        fixed.push({ z: null, p: null, ci: null, relativeCi: null, unpooled: null });
-        lifts.push({ absolute: null, relative: null });
-        looks.push(null);
-        relativeLooks.push(null);
+      if (!valid[d * armCount + index] || !valid[d * armCount + holdoutIndex] || treatment.n < minimumUnits || holdout.n < minimumUnits) {
+        lifts[d] = NO_LIFT;
+        fixed[d] = NO_FIXED;
         continue;
       }
-      const test = twoSampleZTestUnchecked(treatment, holdout, plan.metric, plan.sides, quantile);
-      fixed.push({ z: test.pooled.z, p: test.pooled.p, ci: test.ci.absolute, relativeCi: test.ci.relative, unpooled: test.unpooled });
-      lifts.push({ absolute: test.absolute, relative: test.relative });
-      const lift = test.lift;
-      looks.push(lift.variance > 0 ? { estimate: lift.absolute, variance: lift.variance } : null);
-      relativeLooks.push(
-        tauRelative !== null && lift.logRatio !== null && lift.logRatioVariance !== null && lift.logRatioVariance > 0
-          ? { estimate: lift.logRatio, variance: lift.logRatioVariance }
-          : null,
-      );
+      const test = twoSampleZTestUnchecked(scratch, treatment, holdout, plan.metric, plan.sides, quantile);
+      lifts[d] = { absolute: test.absolute, relative: test.ratioDefined ? Math.expm1(test.logRatio) : null };
+      fixed[d] = {
+        z: test.zPooled,
+        p: test.pPooled,
+        ci: [test.lower, test.upper],
+        relativeCi: test.ratioDefined ? [test.relativeLower, test.relativeUpper] : null,
+        zUnpooled: test.zUnpooled,
+      };
+      if (test.variance > 0) {
+        estimates[d] = test.absolute;
+        variances[d] = test.variance;
+      }
+      if (test.ratioDefined && test.logRatioVariance > 0) {
+        logRatios[d] = test.logRatio;
+        logRatioVariances[d] = test.logRatioVariance;
+      }
     }
-    const sequence = alwaysValidSequence(looks, { tau: tau!, significanceLevel: armSignificanceLevel });
+    const sequence = alwaysValidSequenceArrays(estimates, variances, { tau: tau!, significanceLevel: armSignificanceLevel });
     const relativeSequence =
-      tauRelative === null ? null : alwaysValidSequence(relativeLooks, { tau: tauRelative, significanceLevel: armSignificanceLevel });
+      tauRelative === null ? null : alwaysValidSequenceArrays(logRatios, logRatioVariances, { tau: tauRelative, significanceLevel: armSignificanceLevel });
     return { arm, index, fixed, lifts, sequence, relativeSequence };
   });
 
-  const days: DayResult[] = [];
+  const days: DayResult[] = new Array(dayCount);
+  const counts: number[] = new Array(armCount);
+  const calls: Call[] = new Array(perArm.length);
   let srmP = 1;
   let issuePointer = 0;
   for (let d = 0; d < dayCount; d++) {
     const today = totalsByDay[d];
-    const counts = today.map((totals) => totals.n);
+    let allValid = true;
+    let anyUnits = false;
+    const arms: Record<string, ArmTotals> = {};
+    for (let a = 0; a < armCount; a++) {
+      counts[a] = today[a].n;
+      if (!valid[d * armCount + a]) allValid = false;
+      if (today[a].n > 0) anyUnits = true;
+      arms[keys[a]] = today[a];
+    }
     let chiSquare: DayResult["health"]["srm"]["chiSquare"] = null;
     let sequentialSrm: DayResult["health"]["srm"]["sequential"] = null;
-    if (valid[d].every(Boolean) && counts.some((count) => count > 0)) {
+    if (allValid && anyUnits) {
       // Totals valid ⇒ counts are non-negative integers; shares were normalised above.
       const statistic = sampleRatioChiSquareStatistic(counts, shares);
       chiSquare = { statistic, p: chiSquareSurvival(statistic, armCount - 1) };
@@ -269,49 +294,56 @@ export function analyzeCampaign(
       srmP = Math.min(srmP, Math.exp(-logBayesFactor));
       sequentialSrm = { bayesFactor: Math.exp(logBayesFactor), p: srmP };
     }
-    const arms: Record<string, ArmTotals> = {};
-    for (let a = 0; a < armCount; a++) arms[keys[a]] = today[a];
-    const todaysIssues: HealthIssue[] = [];
+    let todaysIssues = NO_ISSUES;
     while (issuePointer < issues.length && issueDays[issuePointer] <= d) {
-      if (issueDays[issuePointer] === d || (d === 0 && issueDays[issuePointer] < 0)) todaysIssues.push(issues[issuePointer]);
+      if (issueDays[issuePointer] === d || (d === 0 && issueDays[issuePointer] < 0)) {
+        if (todaysIssues === NO_ISSUES) todaysIssues = [];
+        todaysIssues.push(issues[issuePointer]);
+      }
       issuePointer++;
     }
     const healthy = issuePointer === 0 && srmP >= srmSignificanceLevel;
     const dayOfCampaign = d + 1;
     const byArm: Record<string, ArmDayResult> = {};
     let leading = perArm[0];
-    const calls: Call[] = [];
-    for (const result of perArm) {
-      const step = result.sequence[d];
+    let leadingResult: ArmDayResult | null = null;
+    for (let k = 0; k < perArm.length; k++) {
+      const result = perArm[k];
+      const p = result.sequence.p[d];
+      const cs: Interval = [result.sequence.lower[d], result.sequence.upper[d]];
       const horizonReached =
         plan.maxDays !== undefined
           ? dayOfCampaign >= plan.maxDays
           : plannedSampleSize !== null &&
             today[result.index].n >= plannedSampleSize[result.arm].treatment &&
             today[holdoutIndex].n >= plannedSampleSize[result.arm].holdout;
-      const call = decideCall({ healthy, p: step.p, cs: step.cs, significanceLevel: armSignificanceLevel, minimumAbsoluteLift, horizonReached });
-      calls.push(call);
-      byArm[result.arm] = {
+      const call = decideCall({ healthy, p, cs, significanceLevel: armSignificanceLevel, minimumAbsoluteLift, horizonReached });
+      calls[k] = call;
+      const relative = result.relativeSequence;
+      const armResult: ArmDayResult = {
         lift: result.lifts[d],
         fixed: result.fixed[d],
-        sequential: { p: step.p, cs: step.cs, relativeCs: result.relativeSequence === null ? null : relativeInterval(result.relativeSequence[d].cs) },
+        sequential: { p, cs, relativeCs: relative === null ? null : [Math.expm1(relative.lower[d]), Math.expm1(relative.upper[d])] },
         call,
       };
-      if (step.p < leading.sequence[d].p) leading = result;
+      byArm[result.arm] = armResult;
+      if (leadingResult === null || p < leading.sequence.p[d]) {
+        leading = result;
+        leadingResult = armResult;
+      }
     }
-    const leadingResult = byArm[leading.arm];
-    days.push({
+    days[d] = {
       date: dates[d] ?? formatDay(firstDay + d),
       dayNumber: dayOfCampaign,
       arms,
-      health: { ok: healthy, issues: todaysIssues.length === 0 ? NO_ISSUES : todaysIssues, srm: { chiSquare, sequential: sequentialSrm } },
+      health: { ok: healthy, issues: todaysIssues, srm: { chiSquare, sequential: sequentialSrm } },
       leadingArm: leading.arm,
-      lift: leadingResult.lift,
-      fixed: leadingResult.fixed,
-      sequential: leadingResult.sequential,
-      call: campaignCall(calls),
+      lift: leadingResult!.lift,
+      fixed: leadingResult!.fixed,
+      sequential: leadingResult!.sequential,
+      call: calls.length === 1 ? calls[0] : campaignCall(calls),
       byArm,
-    });
+    };
   }
 
   let peekingCost: number | null = null;
@@ -341,14 +373,8 @@ export function analyzeCampaign(
 }
 
 const NO_ISSUES: HealthIssue[] = Object.freeze([]) as unknown as HealthIssue[];
-
-function totalsAreValid(totals: ArmTotals, metric: CampaignPlan["metric"]): boolean {
-  return armTotalsProblem(totals, metric) === null;
-}
-
-function relativeInterval([lower, upper]: Interval): Interval {
-  return [Math.expm1(lower), Math.expm1(upper)];
-}
+const NO_LIFT: ArmDayResult["lift"] = Object.freeze({ absolute: null, relative: null });
+const NO_FIXED: ArmDayResult["fixed"] = Object.freeze({ z: null, p: null, ci: null, relativeCi: null, zUnpooled: null });
 
 function campaignCall(calls: readonly Call[]): Call {
   if (calls.includes("suspect")) return "suspect";

@@ -1,6 +1,6 @@
 import type { ArmTotals, MetricKind } from "./types";
 import { requireEstimableArm } from "./require-estimable-arm";
-import { liftEstimateUnchecked } from "./lift-estimate-unchecked";
+import { createZTestScratch, twoSampleZTestUnchecked } from "./two-sample-z-test-unchecked";
 
 /** The lift of a treatment over the holdout, with the variances the tests and intervals need. */
 export interface LiftEstimate {
@@ -37,5 +37,14 @@ export interface LiftEstimate {
 export function liftEstimate(treatment: ArmTotals, holdout: ArmTotals, metric: MetricKind): LiftEstimate {
   requireEstimableArm("liftEstimate", "treatment", treatment, metric);
   requireEstimableArm("liftEstimate", "holdout", holdout, metric);
-  return liftEstimateUnchecked(treatment, holdout, metric);
+  const test = twoSampleZTestUnchecked(createZTestScratch(), treatment, holdout, metric, 2, 0);
+  return {
+    treatmentMean: test.treatmentMean,
+    holdoutMean: test.holdoutMean,
+    absolute: test.absolute,
+    variance: test.variance,
+    relative: test.ratioDefined ? Math.expm1(test.logRatio) : null,
+    logRatio: test.ratioDefined ? test.logRatio : null,
+    logRatioVariance: test.ratioDefined ? test.logRatioVariance : null,
+  };
 }

@@ -1,6 +1,7 @@
 import type { ArmTotals, Interval, MetricKind, Sides } from "./types";
 import { requireEstimableArm } from "./require-estimable-arm";
-import { twoSampleZTestUnchecked } from "./two-sample-z-test-unchecked";
+import { createZTestScratch, twoSampleZTestUnchecked } from "./two-sample-z-test-unchecked";
+import { zTestPValue } from "./z-test-p-value";
 import { normalQuantile } from "./normal-distribution";
 import { requireProbability } from "./require-probability";
 import { requireSides } from "./require-sides";
@@ -51,6 +52,12 @@ export function twoSampleZTest(
   requireProbability("twoSampleZTest", "significanceLevel", significanceLevel);
   requireEstimableArm("twoSampleZTest", "treatment", treatment, metric);
   requireEstimableArm("twoSampleZTest", "holdout", holdout, metric);
-  const full = twoSampleZTestUnchecked(treatment, holdout, metric, sides, normalQuantile(1 - significanceLevel / sides));
-  return { absolute: full.absolute, relative: full.relative, pooled: full.pooled, unpooled: full.unpooled, ci: full.ci };
+  const test = twoSampleZTestUnchecked(createZTestScratch(), treatment, holdout, metric, sides, normalQuantile(1 - significanceLevel / sides));
+  return {
+    absolute: test.absolute,
+    relative: test.ratioDefined ? Math.expm1(test.logRatio) : null,
+    pooled: { z: test.zPooled, p: test.pPooled },
+    unpooled: { z: test.zUnpooled, p: zTestPValue(test.zUnpooled, sides) },
+    ci: { absolute: [test.lower, test.upper], relative: test.ratioDefined ? [test.relativeLower, test.relativeUpper] : null },
+  };
 }

@@ -93,7 +93,7 @@ describe("peeksafe boundaries and peeking-cost", () => {
   it("matches rpact getDesignGroupSequential(kMax = 4, alpha = 0.05, sided = 2, typeOfDesign = \"asOF\") (B's fixture)", () => {
     const reference = rpact.spending.find((e) => e.typeOfDesign === "asOF" && e.sided === 2 && e.alpha === 0.05 && e.informationRates.join() === "0.25,0.5,0.75,1")!;
     const output = json("boundaries", "--fractions", "0.25,0.5,0.75,1", "--alpha", "0.05", "--spending", "obf");
-    output.z.forEach((z: number, i: number) => expect(Math.abs(z - reference.criticalValues[i])).toBeLessThanOrEqual(TOLERANCE.boundary));
+    output.z.forEach((z: number, i: number) => expect(Math.abs(z - reference.criticalValues[i]!)).toBeLessThanOrEqual(TOLERANCE.boundary));
     expect(output.cumulativeAlpha.at(-1)).toBeCloseTo(0.05, 12);
   });
   it("gives the error of 5 naive looks: Jennison & Turnbull (2000) Table 1.1, 0.142 (published table value, typed in)", () => {

@@ -123,7 +123,7 @@ describe("analyzeCampaign — the calls", () => {
   });
   it("leaves early days without conversions unestimated instead of NaN", () => {
     const result = analyzeCampaign(plan, series(3, { holdout: (d) => [d === 0 ? 0 : 100, d === 0 ? 0 : 10], treatment: () => [100, 12] }));
-    expect(result.days[0].fixed).toEqual({ z: null, p: null, ci: null, relativeCi: null, unpooled: null });
+    expect(result.days[0].fixed).toEqual({ z: null, p: null, ci: null, relativeCi: null, zUnpooled: null });
     expect(result.days[0].sequential).toEqual({ p: 1, cs: [-Infinity, Infinity], relativeCs: [-1, Infinity] });
     expect(JSON.stringify(result)).not.toContain("NaN");
   });
