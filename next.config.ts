@@ -20,6 +20,8 @@ const nextConfig: NextConfig = {
   // A separate build folder per checkout or engineer (NEXT_DIST_DIR) keeps parallel builds apart.
   distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
+  // `npm test` runs tsc over the whole project as its own step; the build need not repeat it.
+  typescript: { ignoreBuildErrors: true },
   reactStrictMode: true,
   serverExternalPackages: ["pg", "pino", "smtp-server", "mailparser", "nodemailer"],
   async headers() {

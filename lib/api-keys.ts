@@ -16,12 +16,16 @@ export interface CreatedApiKey {
 export async function createWorkspaceApiKey(input: {
   workspaceId: string;
   userId: string;
-  requestHeaders: Headers;
   data: CreateApiKeyInput;
 }): Promise<CreatedApiKey> {
+  // A server call (no request headers): permissions are a server-only property of the key plugin.
   const created = await getAuth().api.createApiKey({
-    body: { name: input.data.name, organizationId: input.workspaceId, permissions: keyStatements(input.data.permissions) },
-    headers: input.requestHeaders,
+    body: {
+      name: input.data.name,
+      organizationId: input.workspaceId,
+      userId: input.userId,
+      permissions: keyStatements(input.data.permissions),
+    },
   });
   await createAuditEvent({
     workspaceId: input.workspaceId,

@@ -27,7 +27,7 @@ export function buildIsStale(root = process.cwd()): boolean {
 export function buildApp(env: NodeJS.ProcessEnv): void {
   const result = spawnSync(path.resolve("node_modules/.bin/next"), ["build"], {
     stdio: "inherit",
-    env: { ...env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
+    env: productionEnv(env),
   });
   if (result.status !== 0) throw new Error(`next build failed with exit code ${result.status}`);
 }
@@ -38,6 +38,16 @@ export interface RunningApp {
   stop(): Promise<void>;
 }
 
+/** The environment minus a test runner's markers (better-auth turns its origin checks off when TEST is set). */
+export function productionEnv(env: NodeJS.ProcessEnv): NodeJS.ProcessEnv {
+  const clean: Record<string, string | undefined> = {};
+  for (const [name, value] of Object.entries(env)) {
+    if (name === "TEST" || name.startsWith("VITEST")) continue;
+    clean[name] = value;
+  }
+  return { ...clean, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" };
+}
+
 /** Starts `next start` on 127.0.0.1 and waits until /api/health answers. */
 export async function startApp(options: { port: number; env: NodeJS.ProcessEnv; quiet?: boolean }): Promise<RunningApp> {
   const url = `http://127.0.0.1:${options.port}`;
@@ -45,7 +55,7 @@ export async function startApp(options: { port: number; env: NodeJS.ProcessEnv; 
     path.resolve("node_modules/.bin/next"),
     ["start", "--hostname", "127.0.0.1", "--port", String(options.port)],
     {
-      env: { ...options.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", APP_URL: options.env.APP_URL ?? url },
+      env: { ...productionEnv(options.env), APP_URL: options.env.APP_URL ?? url },
       stdio: options.quiet ? ["ignore", "ignore", "inherit"] : ["ignore", "inherit", "inherit"],
     },
   );

@@ -24,7 +24,6 @@ export async function POST(request: Request) {
     const created = await createWorkspaceApiKey({
       workspaceId: caller.workspaceId,
       userId: caller.userId,
-      requestHeaders: request.headers,
       data,
     });
     return Response.json(created, { status: 201, headers: { "cache-control": "no-store" } });
