@@ -23,7 +23,19 @@ export function binomialProbability(successes: number, trials: number, probabili
   return binomialRaw(successes, trials, probability, 1 - probability);
 }
 
-/** Loader's dbinom_raw; `q = 1 − p` passed separately to keep its precision. */
+/**
+ * Binomial mass without argument checks, with `q = 1 − p` passed separately to keep its precision
+ * (Loader's `dbinom_raw`); the kernel of {@link binomialProbability} and the hypergeometric mass.
+ *
+ * Reference: Loader (2000), "Fast and Accurate Computation of Binomial Probabilities". Complexity: O(1).
+ *
+ * @param x - an integer (outside [0, n] gives 0)
+ * @param n - a non-negative integer
+ * @param p - in [0, 1]
+ * @param q - 1 − p, in [0, 1]
+ * @returns P(X = x) in [0, 1]
+ * @example binomialRaw(3, 10, 0.5, 0.5) // 0.1171875
+ */
 export function binomialRaw(x: number, n: number, p: number, q: number): number {
   if (x < 0 || x > n) return 0;
   if (p === 0) return x === 0 ? 1 : 0;

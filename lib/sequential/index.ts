@@ -49,3 +49,6 @@ export * from "./recursive-integration-grid";
 export * from "./recursive-integration-crossing";
 export * from "./recursive-integration-exit";
 export * from "./recursive-integration-resolution";
+export * from "./group-sequential-root";
+export * from "./obrien-fleming-constant";
+export * from "./pocock-constant";
