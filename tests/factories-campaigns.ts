@@ -90,14 +90,29 @@ export const PRODUCT_TABLES = [
   "audit_events",
 ] as const;
 
-/** Every row of every product table, as text in a stable order: compare two dumps to prove nothing was written. */
-export async function dumpProductTables(): Promise<string> {
+/**
+ * Every row of every product table, as text in a stable order: compare two dumps to prove nothing was
+ * written. With `workspaceIds`, only rows of those workspaces (by workspace_id, or campaign_id of their
+ * campaigns), so test files running side by side do not disturb each other.
+ */
+export async function dumpProductTables(workspaceIds?: string[]): Promise<string> {
   const pool = getPool();
   const parts: string[] = [];
   for (const table of PRODUCT_TABLES) {
-    const exists = await pool.query("select to_regclass($1) as name", [table]);
-    if (!exists.rows[0].name) continue;
-    const { rows } = await pool.query(`select row_to_json(t)::text as line from ${table} t order by 1`);
+    const { rows: columns } = await pool.query<{ column_name: string }>("select column_name from information_schema.columns where table_name = $1", [table]);
+    if (columns.length === 0) continue;
+    const names = new Set(columns.map((column) => column.column_name));
+    let where = "";
+    const params: unknown[] = [];
+    if (workspaceIds) {
+      params.push(workspaceIds);
+      if (names.has("workspace_id")) where = "where t.workspace_id = any($1)";
+      else if (names.has("campaign_id")) where = "where t.campaign_id in (select id from campaigns where workspace_id = any($1))";
+      else if (names.has("alert_id")) where = "where t.alert_id in (select a.id from alerts a join campaigns c on c.id = a.campaign_id where c.workspace_id = any($1))";
+      else if (names.has("user_id")) where = "where t.user_id in (select user_id from members where organization_id = any($1))";
+      else params.pop();
+    }
+    const { rows } = await pool.query(`select row_to_json(t)::text as line from ${table} t ${where} order by 1`, params);
     parts.push(`-- ${table}\n${rows.map((row) => row.line).join("\n")}`);
   }
   return parts.join("\n");
