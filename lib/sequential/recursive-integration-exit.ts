@@ -58,10 +58,18 @@ export function exitProbability(
   const { points, weightedDensity } = previous;
   let probability = 0;
   let density = 0;
+  const sign = side === "upper" ? 1 : -1;
   for (let i = 0; i < points.length; i += 1) {
     const standardized = (boundScore - points[i] * rootPrevious) / rootIncrement;
+    // Beyond 9 standard deviations the tail is 0 or 1 and the density 0 to double precision (φ(9) ≈ 1e-18).
+    const away = sign * standardized;
+    if (away > 9 || Number.isNaN(away)) continue;
+    if (away < -9) {
+      probability += weightedDensity[i];
+      continue;
+    }
     probability += weightedDensity[i] * tail(standardized);
-    if (Number.isFinite(standardized)) density += weightedDensity[i] * normalDensity(standardized);
+    density += weightedDensity[i] * normalDensity(standardized);
   }
   return {
     probability: Math.min(1, Math.max(0, probability)),

@@ -34,7 +34,8 @@ const KERNEL_REACH = 8;
  * *Group Sequential Methods with Applications to Clinical Trials*, ch. 19 (§19.2). Assumes
  * independent normal increments with known variance (the canonical joint distribution).
  * Complexity: O(m_k · w) time, m_k nodes at this look and w ≤ m_{k−1} previous nodes within reach
- * of the kernel; O(m_k) memory.
+ * of the kernel, with one exp per run of equally spaced nodes (the kernel is updated by products
+ * along a run); O(m_k) memory.
  *
  * @param previous - the result at look k − 1, or undefined for the first look
  * @param fraction - information fraction of look k, finite and > 0, above previous.fraction
@@ -79,6 +80,7 @@ export function continuationDensity(
     const scale = rootFraction / (rootIncrement * Math.sqrt(2 * Math.PI));
     const reach = KERNEL_REACH * rootIncrement;
     const scores = scoresOf(previous);
+    const runEnd = equalSpacingRuns(scores);
     const mass = previous.weightedDensity;
     const previousCount = scores.length;
     let start = 0;
@@ -89,9 +91,25 @@ export function continuationDensity(
       if (end < start) end = start;
       while (end < previousCount && scores[end] <= score + reach) end += 1;
       let sum = 0;
-      for (let i = start; i < end; i += 1) {
+      let i = start;
+      while (i < end) {
+        // Along equally spaced nodes the Gaussian kernel follows e_{i+1} = e_i·q_i, q_{i+1} = q_i·ρ:
+        // one exp per run instead of one per node.
+        const stop = Math.min(end, runEnd[i]);
         const difference = score - scores[i];
-        sum += mass[i] * Math.exp(-difference * difference * halfInverseIncrement);
+        let kernel = Math.exp(-difference * difference * halfInverseIncrement);
+        sum += mass[i] * kernel;
+        if (i + 1 < stop) {
+          const gap = scores[i + 1] - scores[i];
+          let ratio = Math.exp((2 * difference * gap - gap * gap) * halfInverseIncrement);
+          const decay = Math.exp(-2 * gap * gap * halfInverseIncrement);
+          for (let m = i + 1; m < stop; m += 1) {
+            kernel *= ratio;
+            ratio *= decay;
+            sum += mass[m] * kernel;
+          }
+        }
+        i = stop;
       }
       weightedDensity[j] = weights[j] * scale * sum;
     }
@@ -108,4 +126,25 @@ function scoresOf(density: ContinuationDensity): Float64Array {
   const scores = new Float64Array(density.points.length);
   for (let i = 0; i < scores.length; i += 1) scores[i] = density.points[i] * root;
   return scores;
+}
+
+/**
+ * For each node i, one past the last node of the run of equal spacing that starts at i (runs
+ * partition the nodes; a Simpson interval's three nodes are always one run).
+ */
+function equalSpacingRuns(nodes: Float64Array): Int32Array {
+  const count = nodes.length;
+  const runEnd = new Int32Array(count);
+  let runStart = 0;
+  while (runStart < count) {
+    let next = runStart + 1;
+    if (next < count) {
+      const gap = nodes[next] - nodes[runStart];
+      while (next + 1 < count && Math.abs(nodes[next + 1] - nodes[next] - gap) <= 1e-9 * gap) next += 1;
+    }
+    const stop = Math.min(count, next + 1);
+    for (let i = runStart; i < stop; i += 1) runEnd[i] = stop;
+    runStart = stop;
+  }
+  return runEnd;
 }

@@ -9,7 +9,7 @@ describe("pocockConstant against R's rpact", () => {
   for (const reference of rpact.constant.filter((entry) => entry.typeOfDesign === "P")) {
     it(reference.call, () => {
       const value = pocockConstant(reference.looks, reference.alpha, reference.sided as 1 | 2);
-      for (const critical of reference.criticalValues) expect(Math.abs(value - critical)).toBeLessThanOrEqual(TOLERANCE.boundary);
+      for (const critical of reference.criticalValues) expect(Math.abs(value - (critical as number))).toBeLessThanOrEqual(TOLERANCE.boundary);
     });
   }
 });
