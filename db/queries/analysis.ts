@@ -1,0 +1,221 @@
+import { and, asc, desc, eq, gt, inArray, isNull, or, sql } from "drizzle-orm";
+import { getDb, type Database } from "@/db";
+import { analysisDays, arms, campaigns, dailyCounts, organizations, type NewAnalysisDay } from "@/db/schema";
+import type { CallName } from "@/db/schema";
+
+/** A transaction of the shared database. */
+export type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
+
+/** Statuses whose campaigns are analysed (a draft has no data yet, an archived one is frozen). */
+const ANALYSED_STATUSES = ["running", "paused", "ended"] as const;
+
+/**
+ * Ids of the campaigns to recompute: with `all`, every analysed campaign (the nightly pass, which
+ * then skips those whose inputs hash is unchanged); otherwise those never analysed or whose counts or
+ * plan changed since the last analysis. Optionally restricted to `workspaceIds`.
+ */
+export async function listCampaignsToRecompute(options: { all?: boolean; workspaceIds?: string[] } = {}): Promise<string[]> {
+  const marked = or(
+    isNull(campaigns.analyzedAt),
+    gt(campaigns.countsChangedAt, campaigns.analyzedAt),
+    gt(campaigns.planChangedAt, campaigns.analyzedAt),
+  );
+  const rows = await getDb()
+    .select({ id: campaigns.id })
+    .from(campaigns)
+    .where(
+      and(
+        inArray(campaigns.status, [...ANALYSED_STATUSES]),
+        options.all ? undefined : marked,
+        options.workspaceIds ? inArray(campaigns.workspaceId, options.workspaceIds) : undefined,
+      ),
+    )
+    .orderBy(asc(campaigns.countsChangedAt), asc(campaigns.id));
+  return rows.map((row) => row.id);
+}
+
+export interface AnalysisInputs {
+  campaign: {
+    id: string;
+    workspaceId: string;
+    name: string;
+    status: string;
+    metricKind: "conversion" | "mean";
+    metricName: string;
+    metricUnit: string | null;
+    alpha: number;
+    power: number;
+    sides: number;
+    baselineRate: number | null;
+    baselineMean: number | null;
+    baselineSd: number | null;
+    minimumLift: number;
+    tau: number;
+    maxDays: number;
+    currentCall: CallName;
+    analysisInputsHash: string | null;
+  };
+  arms: { key: string; name: string; plannedShare: number; position: number }[];
+  /** Daily new counts per arm, by day then arm key. */
+  rows: { date: string; arm: string; n: number; sum: number; sumSq: number }[];
+}
+
+/**
+ * Locks the campaign row for this transaction (`for update`: one recompute of a campaign at a time)
+ * and reads its plan, arms and daily counts. Null when the campaign does not exist.
+ */
+export async function lockAnalysisInputs(tx: Transaction, campaignId: string): Promise<AnalysisInputs | null> {
+  const found = await tx
+    .select({
+      id: campaigns.id,
+      workspaceId: campaigns.workspaceId,
+      name: campaigns.name,
+      status: campaigns.status,
+      metricKind: campaigns.metricKind,
+      metricName: campaigns.metricName,
+      metricUnit: campaigns.metricUnit,
+      alpha: campaigns.alpha,
+      power: campaigns.power,
+      sides: campaigns.sides,
+      baselineRate: campaigns.baselineRate,
+      baselineMean: campaigns.baselineMean,
+      baselineSd: campaigns.baselineSd,
+      minimumLift: campaigns.minimumLift,
+      tau: campaigns.tau,
+      maxDays: campaigns.maxDays,
+      currentCall: campaigns.currentCall,
+      analysisInputsHash: campaigns.analysisInputsHash,
+    })
+    .from(campaigns)
+    .where(eq(campaigns.id, campaignId))
+    .for("update");
+  const campaign = found[0];
+  if (!campaign) return null;
+  const armRows = await tx
+    .select({ id: arms.id, key: arms.key, name: arms.name, plannedShare: arms.plannedShare, position: arms.position })
+    .from(arms)
+    .where(eq(arms.campaignId, campaignId))
+    .orderBy(asc(arms.position), asc(arms.key));
+  const counts = await tx
+    .select({ date: dailyCounts.day, arm: arms.key, n: dailyCounts.units, sum: dailyCounts.sum, sumSq: dailyCounts.sumSquares })
+    .from(dailyCounts)
+    .innerJoin(arms, eq(arms.id, dailyCounts.armId))
+    .where(eq(dailyCounts.campaignId, campaignId))
+    .orderBy(asc(dailyCounts.day), asc(arms.key));
+  return { campaign, arms: armRows.map(({ key, name, plannedShare, position }) => ({ key, name, plannedShare, position })), rows: counts };
+}
+
+/** Replaces every analysis day of the campaign (inside the recompute transaction). */
+export async function replaceAnalysisDays(tx: Transaction, campaignId: string, days: NewAnalysisDay[]): Promise<void> {
+  await tx.delete(analysisDays).where(eq(analysisDays.campaignId, campaignId));
+  for (let start = 0; start < days.length; start += 500) {
+    await tx.insert(analysisDays).values(days.slice(start, start + 500));
+  }
+}
+
+/** Records the campaign's current call and the hash of the inputs it was computed from. */
+export async function markCampaignAnalyzed(tx: Transaction, campaignId: string, values: { call: CallName; inputsHash: string }): Promise<Date> {
+  const [row] = await tx
+    .update(campaigns)
+    .set({ currentCall: values.call, analysisInputsHash: values.inputsHash, analyzedAt: sql`clock_timestamp()` })
+    .where(eq(campaigns.id, campaignId))
+    .returning({ analyzedAt: campaigns.analyzedAt });
+  return row.analyzedAt!;
+}
+
+/** Notes that a campaign's inputs were checked and found unchanged (a skipped recompute). */
+export async function touchCampaignAnalyzed(tx: Transaction, campaignId: string): Promise<void> {
+  await tx.update(campaigns).set({ analyzedAt: sql`clock_timestamp()` }).where(eq(campaigns.id, campaignId));
+}
+
+export interface AnalysisRefresh {
+  campaignId: string;
+  analyzedAt: Date | null;
+  countsChangedAt: Date | null;
+  currentCall: CallName;
+  /** Counts or plan changed after the last analysis: the next worker pass will recompute. */
+  pending: boolean;
+  days: number;
+}
+
+/** When the campaign's analysis was last refreshed, scoped to the workspace; null when not found there. */
+export async function getAnalysisRefresh(workspaceId: string, campaignId: string): Promise<AnalysisRefresh | null> {
+  const rows = await getDb()
+    .select({
+      campaignId: campaigns.id,
+      analyzedAt: campaigns.analyzedAt,
+      countsChangedAt: campaigns.countsChangedAt,
+      planChangedAt: campaigns.planChangedAt,
+      currentCall: campaigns.currentCall,
+      days: sql<number>`(select count(*) from ${analysisDays} where ${analysisDays.campaignId} = ${campaigns.id})`.mapWith(Number),
+    })
+    .from(campaigns)
+    .where(and(eq(campaigns.workspaceId, workspaceId), eq(campaigns.id, campaignId)))
+    .limit(1);
+  const row = rows[0];
+  if (!row) return null;
+  const changed = [row.countsChangedAt, row.planChangedAt].filter((value): value is Date => value !== null);
+  const pending = row.analyzedAt === null ? true : changed.some((value) => value > row.analyzedAt!);
+  return { campaignId: row.campaignId, analyzedAt: row.analyzedAt, countsChangedAt: row.countsChangedAt, currentCall: row.currentCall, pending, days: row.days };
+}
+
+/** Every analysis day of a campaign, oldest first (tests and the digest read these). */
+export async function listAnalysisDays(campaignId: string) {
+  return getDb().select().from(analysisDays).where(eq(analysisDays.campaignId, campaignId)).orderBy(asc(analysisDays.day));
+}
+
+/** The latest analysis day of each of the campaigns. */
+export async function listLatestAnalysisDays(campaignIds: string[]) {
+  if (campaignIds.length === 0) return [];
+  return getDb()
+    .selectDistinctOn([analysisDays.campaignId])
+    .from(analysisDays)
+    .where(inArray(analysisDays.campaignId, campaignIds))
+    .orderBy(analysisDays.campaignId, desc(analysisDays.day));
+}
+
+/** Workspaces grouped by their time zone (UTC when unset), for the passes that run at a local hour. */
+export async function listWorkspaceTimeZones(): Promise<Map<string, string[]>> {
+  const rows = await getDb().select({ id: organizations.id, timeZone: organizations.timeZone }).from(organizations);
+  const zones = new Map<string, string[]>();
+  for (const row of rows) {
+    const zone = row.timeZone || "UTC";
+    zones.set(zone, [...(zones.get(zone) ?? []), row.id]);
+  }
+  return zones;
+}
+
+export interface RunningCampaignCall {
+  id: string;
+  name: string;
+  workspaceId: string;
+  createdBy: string | null;
+  currentCall: CallName;
+  analyzedAt: Date | null;
+  daysRun: number | null;
+  liftRelative: number | null;
+  sequentialP: number | null;
+  fixedP: number | null;
+}
+
+/** Every running campaign of the workspace with its current call and latest analysis day, by name. */
+export async function listRunningCampaignCalls(workspaceId: string): Promise<RunningCampaignCall[]> {
+  const latest = sql`(select ${analysisDays.id} from ${analysisDays} where ${analysisDays.campaignId} = ${campaigns.id} order by ${analysisDays.day} desc limit 1)`;
+  return getDb()
+    .select({
+      id: campaigns.id,
+      name: campaigns.name,
+      workspaceId: campaigns.workspaceId,
+      createdBy: campaigns.createdBy,
+      currentCall: campaigns.currentCall,
+      analyzedAt: campaigns.analyzedAt,
+      daysRun: analysisDays.daysRun,
+      liftRelative: analysisDays.liftRelative,
+      sequentialP: analysisDays.sequentialP,
+      fixedP: analysisDays.fixedP,
+    })
+    .from(campaigns)
+    .leftJoin(analysisDays, sql`${analysisDays.id} = ${latest}`)
+    .where(and(eq(campaigns.workspaceId, workspaceId), eq(campaigns.status, "running")))
+    .orderBy(asc(campaigns.name));
+}

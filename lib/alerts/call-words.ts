@@ -1,0 +1,43 @@
+import type { CallName } from "@/db/schema";
+
+/** Each call in words: the short phrase, what to do, and the one-line reason. Words first, never colour alone. */
+export const CALL_WORDS: Record<CallName, { phrase: string; action: string; meaning: string }> = {
+  lift: {
+    phrase: "Lift proven",
+    action: "Stop and ship",
+    meaning: "The always-valid confidence sequence lies above zero: the campaign lifts conversion, and this holds however often the results were looked at.",
+  },
+  harm: {
+    phrase: "Harm proven",
+    action: "Stop and roll back",
+    meaning: "The always-valid confidence sequence lies below zero: the campaign hurts the metric.",
+  },
+  flat: {
+    phrase: "Not worth waiting",
+    action: "Stop, not worth waiting",
+    meaning: "The confidence sequence excludes the smallest lift worth having: even if there is an effect, it is too small to matter.",
+  },
+  horizon: {
+    phrase: "Horizon reached",
+    action: "Horizon reached, read the fixed-horizon result",
+    meaning: "The planned duration is over without a sequential call: the fixed-horizon test is now valid and decides.",
+  },
+  suspect: {
+    phrase: "Check the data",
+    action: "Data problem, do not decide",
+    meaning: "A data-health check failed (for example a sample-ratio mismatch or impossible counts): no call is made until it is resolved.",
+  },
+  collecting: {
+    phrase: "Collecting evidence",
+    action: "Keep running",
+    meaning: "No boundary is crossed (any more): keep the campaign running and let the evidence build.",
+  },
+};
+
+/** The assumptions every call rests on (DESIGN.md §1 and §3). */
+export const CALL_ASSUMPTIONS = [
+  "Units were assigned to the arms at random, in the planned shares.",
+  "Units are independent of each other (one unit is counted in one arm only).",
+  "The conversion window is stable: a unit's outcome is counted the same way every day.",
+  "Variances are estimated from the data, so the always-valid guarantee holds for large samples.",
+] as const;
