@@ -23,7 +23,7 @@ import { solveDecreasing } from "./group-sequential-root";
  * @param sides - 2 (default) or 1
  * @returns C_B(K, α), the critical value at the last look; look k uses C_B·√(K/k)
  * @throws RangeError when looks is not an integer ≥ 1, α is outside (0, 1) or sides is not 1 or 2
- * @example obrienFlemingConstant(5, 0.05) // ≈ 2.0397
+ * @example obrienFlemingConstant(5, 0.05) // ≈ 2.0401
  */
 export function obrienFlemingConstant(looks: number, significanceLevel: number, sides: 1 | 2 = 2): number {
   if (!Number.isInteger(looks) || looks < 1) {
