@@ -1,6 +1,5 @@
 "use server";
 
-import { APIError } from "better-auth";
 import { revalidatePath } from "next/cache";
 import { headers } from "next/headers";
 import { z, type ZodType } from "zod";
@@ -34,11 +33,11 @@ const AUTH_MESSAGES: Record<string, string> = {
 
 function messageOf(error: unknown): string {
   if (error instanceof DomainError) return error.message;
-  if (error instanceof APIError) {
-    const code = (error.body as { code?: string } | undefined)?.code;
-    if (code && AUTH_MESSAGES[code]) return AUTH_MESSAGES[code];
-    if (error.statusCode === 403) return "Your role does not allow this.";
-  }
+  // better-auth's APIError may come from another bundled copy of the class, so match its shape.
+  const auth = error as { body?: { code?: string }; statusCode?: number };
+  const code = auth?.body?.code;
+  if (code && AUTH_MESSAGES[code]) return AUTH_MESSAGES[code];
+  if (auth?.statusCode === 403) return "Your role does not allow this.";
   console.error("settings action failed", error);
   return "Something went wrong. Try again.";
 }
