@@ -85,14 +85,20 @@ function time<T>(work: () => T): { ms: number; cpuMs: number; value: T } {
 }
 
 const tau = analyzeCampaign(plan, campaigns[0], { peekingCost: false }).tau;
-bareMsprt(tau); // warm-up, so both figures are compiled code
-analyzeCampaign(plan, campaigns[1], { peekingCost: false });
+// Warm-up, so every figure is optimized code (the worker runs all day): the bare loop twice, the
+// engine on 500 campaigns — one call is not enough for V8 to reach its optimizing tier.
+bareMsprt(tau);
+bareMsprt(tau);
+for (let c = 0; c < 500; c++) analyzeCampaign(plan, campaigns[c], { peekingCost: false });
 const bare = time(() => bareMsprt(tau));
-const engine = time(() => {
+const analyzeAll = () => {
   let calls = 0;
   for (const rows of campaigns) if (analyzeCampaign(plan, rows, { peekingCost: false }).days[DAYS - 1].call !== "collecting") calls++;
   return calls;
-});
+};
+// The first pass still pays for V8's tiering on fresh data; the second is the worker's steady state.
+const firstPass = time(analyzeAll);
+const engine = time(analyzeAll);
 naivePeekingError(equalFractions(100));
 const peeking = time(() => naivePeekingError(equalFractions(100)));
 spendingBoundaries({ informationFractions: equalFractions(20), significanceLevel: 0.05, spending: "obf" });
@@ -106,9 +112,10 @@ const line = (label: string, figure: { ms: number; cpuMs: number }, target: stri
     `${label.padEnd(58)} ${(figure.ms / divisor).toFixed(1).padStart(8)} ms wall ${(figure.cpuMs / divisor).toFixed(1).padStart(8)} ms cpu` +
       `  ${(figure.ms / bare.ms).toFixed(2).padStart(6)}× bare  (${target})`,
   );
-console.log(`Peeksafe statistics bench — node ${process.version}, one run after one warm-up call each; load average ${(await import("node:os")).loadavg()[0].toFixed(1)}`);
+console.log(`Peeksafe statistics bench — node ${process.version}, one run after a warm-up (engine: 500 campaigns); load average ${(await import("node:os")).loadavg()[0].toFixed(1)}`);
 line(`bare mSPRT update, ${CAMPAIGNS.toLocaleString("en")} campaigns × ${DAYS} days × 2 arms`, bare, "reference, about 100 ms");
-line("analyzeCampaign, every daily statistic, same campaigns", engine, "target < 1000 ms");
+line("analyzeCampaign, every daily statistic, first pass", firstPass, "includes JIT tiering on fresh data");
+line("analyzeCampaign, every daily statistic, second pass", engine, "target < 1000 ms");
 line("naive peeking cost, 100 equally spaced looks", peeking, "target < 40 ms");
 line("spending boundaries, 20 looks, O'Brien–Fleming type", boundaries, "target < 50 ms");
 line("analyzeCampaign + final-day peeking cost, per campaign", withPeeking, "once per analysis; mean of 100", 100);
