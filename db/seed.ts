@@ -4,6 +4,7 @@ import { closeDb, getDb } from "@/db";
 import { members, organizations, users } from "@/db/schema";
 import type { RoleName } from "@/lib/auth/permissions";
 import { createAuth } from "@/lib/auth/create-auth";
+import { seedDemoCampaigns } from "./demo-scenario";
 
 /** The demo company of the local start: an invented outdoor-gear retailer. */
 export const DEMO_WORKSPACE = { name: "Northwind Outfitters", slug: "northwind-outfitters", timeZone: "Europe/Berlin" };
@@ -55,14 +56,33 @@ export async function seedDemoWorkspace(): Promise<string> {
   return workspace.id;
 }
 
-/** Every demo step; campaigns and their counts are added by the demo scenario when it exists. */
-export async function seedDemo(): Promise<{ workspaceId: string }> {
+/**
+ * Every demo step: the workspace and its users, the demo campaigns with their counts (once), then one
+ * recompute pass so the dashboards have analyses and the first calls queue their alert e-mails (the
+ * worker started beside the app sends them). Safe to run again: nothing is duplicated.
+ */
+export async function seedDemo(): Promise<{ workspaceId: string; campaignsCreated: number; alertsQueued: number }> {
   const workspaceId = await seedDemoWorkspace();
-  return { workspaceId };
+  const db = getDb();
+  const userIdOf = async (role: RoleName) => {
+    const email = DEMO_USERS.find((user) => user.role === role)!.email;
+    const [row] = await db.select({ id: users.id }).from(users).where(eq(users.email, email)).limit(1);
+    return row.id;
+  };
+  const seeded = await seedDemoCampaigns(workspaceId, {
+    createdBy: await userIdOf("marketer"),
+    adminUserId: await userIdOf("admin"),
+    timeZone: DEMO_WORKSPACE.timeZone,
+  });
+  const { runRecompute } = await import("@/cron/recompute");
+  const summary = await runRecompute({ workspaceIds: [workspaceId], wait: true });
+  return { workspaceId, campaignsCreated: seeded.filter((campaign) => campaign.created).length, alertsQueued: summary.alerts };
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   seedDemo()
-    .then(({ workspaceId }) => console.error(`[seed] demo workspace ${workspaceId} ready`))
+    .then(({ workspaceId, campaignsCreated, alertsQueued }) =>
+      console.error(`[seed] demo workspace ${workspaceId} ready (${campaignsCreated} campaigns created, ${alertsQueued} alerts queued)`),
+    )
     .finally(() => closeDb());
 }
