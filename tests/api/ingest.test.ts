@@ -135,17 +135,17 @@ describe("POST /api/v1/ingest: accepted batches", () => {
 
 describe("POST /api/v1/ingest: keys", () => {
   it("refuses a missing key (401), an unknown key (401), a revoked key (401) and a key without the ingest permission (403), writing nothing", async () => {
+    const revoked = await createApiKey(northwind, ["ingest"]);
+    const removed = await northwind.admin.client.json(`/api/v1/keys/${revoked.id}`, { method: "DELETE" });
+    expect([200, 204]).toContain(removed.status);
+    const readOnly = await createApiKey(northwind, ["read"]);
     const dump = await dumpProductTables([northwind.id, other.id]);
     const rows = [countRow(conversion.id, "holdout", day(-6), 100, 5)];
     const url = new URL("/api/v1/ingest", inject("appUrl"));
     const noKey = await fetch(url, { method: "POST", headers: { "content-type": "application/json", "idempotency-key": randomUUID() }, body: JSON.stringify({ rows }) });
     expect(noKey.status).toBe(401);
     expect((await pushCounts("psk_not-a-real-key", rows)).status).toBe(401);
-    const revoked = await createApiKey(northwind, ["ingest"]);
-    const removed = await northwind.admin.client.json(`/api/v1/keys/${revoked.id}`, { method: "DELETE" });
-    expect([200, 204]).toContain(removed.status);
     expect((await pushCounts(revoked.key, rows)).status).toBe(401);
-    const readOnly = await createApiKey(northwind, ["read"]);
     expect((await pushCounts(readOnly.key, rows)).status).toBe(403);
     const session = await northwind.admin.client.json("/api/v1/ingest", { method: "POST", json: { rows }, headers: { "idempotency-key": randomUUID() } });
     expect(session.status).toBe(401);
