@@ -11,6 +11,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "unit",
+          sequence: { groupOrder: 0 },
           include: ["tests/sequential/**/*.test.ts", "tests/cli/**/*.test.ts", "tests/lib/**/*.test.ts"],
           environment: "node",
         },
@@ -19,6 +20,8 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "integration",
+          // Runs after the unit project; its own worker limit keeps the shared app server unhurried.
+          sequence: { groupOrder: 1 },
           include: [
             "tests/db/**/*.test.ts",
             "tests/api/**/*.test.ts",
