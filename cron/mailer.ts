@@ -57,11 +57,11 @@ export function unsubscribeUrl(campaignId: string, userId: string, appUrl = getE
 export async function runMailer(options: { now?: Date; wait?: boolean; logger?: Logger } = {}): Promise<MailerSummary> {
   const logger = options.logger ?? createLogger("mailer");
   const wait = options.wait ?? getWorkerEnv().WORKER_WAIT_FOR_LOCK === "true";
-  const locked = await withJobLock("mailer", logger, { wait }, () => drainOutbox(options.now ?? new Date(), logger));
+  const locked = await withJobLock("mailer", logger, { wait }, () => drainOutbox(options.now ?? null, logger));
   return locked.ran ? locked.result : { ran: false, sent: 0, failed: 0, closedWithoutMail: 0 };
 }
 
-async function drainOutbox(now: Date, logger: Logger): Promise<MailerSummary> {
+async function drainOutbox(at: Date | null, logger: Logger): Promise<MailerSummary> {
   let closedWithoutMail = 0;
   const touched = new Set<string>();
   for (const alert of await listUnsentAlerts()) {
@@ -77,6 +77,8 @@ async function drainOutbox(now: Date, logger: Logger): Promise<MailerSummary> {
   }
   let sent = 0;
   let failed = 0;
+  // Read the clock after expanding, so the deliveries just created are due (same clock as their nextAttemptAt).
+  const now = at ?? new Date();
   for (const delivery of await listDueDeliveries(now)) {
     touched.add(delivery.alertId);
     try {

@@ -3,7 +3,7 @@ import { verifyUnsubscribeToken } from "@/lib/unsubscribe-token";
 
 export const dynamic = "force-dynamic";
 
-export const metadata = { title: "Stop alerts · Peeksafe" };
+export const metadata = { title: "Stop alerts" };
 
 /** Unsubscribe without signing in: the signed token names the person and the campaign; a button confirms (mail scanners only GET). */
 export default async function UnsubscribePage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {

@@ -78,9 +78,10 @@ export async function listAlertRecipients(
 /** Creates the missing delivery rows of an alert (one per recipient; existing ones are kept). */
 export async function ensureDeliveries(alertId: string, recipients: Recipient[]): Promise<void> {
   if (recipients.length === 0) return;
+  const createdAt = new Date();
   await getDb()
     .insert(alertDeliveries)
-    .values(recipients.map((recipient) => ({ alertId, userId: recipient.userId, email: recipient.email })))
+    .values(recipients.map((recipient) => ({ alertId, userId: recipient.userId, email: recipient.email, nextAttemptAt: createdAt })))
     .onConflictDoNothing({ target: [alertDeliveries.alertId, alertDeliveries.email] });
 }
 

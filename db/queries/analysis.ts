@@ -147,7 +147,8 @@ export async function getAnalysisRefresh(workspaceId: string, campaignId: string
       countsChangedAt: campaigns.countsChangedAt,
       planChangedAt: campaigns.planChangedAt,
       currentCall: campaigns.currentCall,
-      days: sql<number>`(select count(*) from ${analysisDays} where ${analysisDays.campaignId} = ${campaigns.id})`.mapWith(Number),
+      // Qualified by hand: inside the subquery an unqualified "id" would name analysis_days.id.
+      days: sql<number>`(select count(*) from "analysis_days" where "analysis_days"."campaign_id" = "campaigns"."id")`.mapWith(Number),
     })
     .from(campaigns)
     .where(and(eq(campaigns.workspaceId, workspaceId), eq(campaigns.id, campaignId)))
@@ -200,7 +201,7 @@ export interface RunningCampaignCall {
 
 /** Every running campaign of the workspace with its current call and latest analysis day, by name. */
 export async function listRunningCampaignCalls(workspaceId: string): Promise<RunningCampaignCall[]> {
-  const latest = sql`(select ${analysisDays.id} from ${analysisDays} where ${analysisDays.campaignId} = ${campaigns.id} order by ${analysisDays.day} desc limit 1)`;
+  const latest = sql`(select "latest"."id" from "analysis_days" as "latest" where "latest"."campaign_id" = "campaigns"."id" order by "latest"."day" desc limit 1)`;
   return getDb()
     .select({
       id: campaigns.id,
