@@ -5,6 +5,7 @@ import { useId, useState } from "react";
 import { controlClasses } from "@/components/ui/input";
 import { cn } from "@/components/ui/cn";
 import { authClient } from "@/lib/auth/client";
+import { hardNavigate } from "./hard-navigate";
 
 export interface WorkspaceChoice {
   id: string;
@@ -32,8 +33,7 @@ export function WorkspaceSwitcher({ workspaces, activeId }: { workspaces: Worksp
       setError("Could not switch workspace. Try again.");
       return;
     }
-    router.push("/campaigns");
-    router.refresh();
+    hardNavigate("/campaigns");
   }
 
   return (

@@ -3,8 +3,9 @@ import { cn } from "./cn";
 
 /** A dense, calm table that scrolls sideways on narrow screens instead of overflowing the page. */
 export function Table({ caption, children, className }: { caption: string; children: ReactNode; className?: string }) {
+  // relative: the sr-only labels inside are absolutely placed and would otherwise widen the page.
   return (
-    <div className="-mx-5 overflow-x-auto px-5">
+    <div className="relative -mx-5 overflow-x-auto px-5">
       <table className={cn("w-full min-w-[32rem] border-collapse text-sm", className)}>
         <caption className="sr-only">{caption}</caption>
         {children}

@@ -2,7 +2,6 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/button";
@@ -13,9 +12,9 @@ import { authClient } from "@/lib/auth/client";
 import { authErrorMessage } from "../_components/auth-errors";
 import { signInSchema, type SignInInput } from "../_components/auth-schemas";
 import { withNext } from "../_components/safe-next";
+import { hardNavigate } from "@/components/shell/hard-navigate";
 
 export function SignInForm({ next }: { next: string }) {
-  const router = useRouter();
   const [error, setError] = useState<string | null>(null);
   const [unverifiedEmail, setUnverifiedEmail] = useState<string | null>(null);
   const [resent, setResent] = useState(false);
@@ -31,8 +30,7 @@ export function SignInForm({ next }: { next: string }) {
       if (result.error.code === "EMAIL_NOT_VERIFIED") setUnverifiedEmail(values.email);
       return;
     }
-    router.replace(next);
-    router.refresh();
+    hardNavigate(next);
   }
 
   async function resend() {

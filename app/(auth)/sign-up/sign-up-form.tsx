@@ -42,7 +42,7 @@ export function SignUpForm({ next, email: presetEmail }: { next: string; email?:
       <div className="space-y-4" data-testid="check-mailbox">
         <Notice tone="success" title="Check your mailbox">
           <p>
-            We sent a confirmation link to <strong>{sentTo}</strong>. Open it to finish creating your account; it signs you in.
+            We sent a confirmation link to <strong className="break-all">{sentTo}</strong>. Open it to finish creating your account; it signs you in.
           </p>
         </Notice>
         <p className="text-sm text-tremor-content dark:text-dark-tremor-content">

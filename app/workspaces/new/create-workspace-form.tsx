@@ -1,7 +1,6 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/button";
@@ -10,9 +9,9 @@ import { Input, Select } from "@/components/ui/input";
 import { Notice } from "@/components/ui/notice";
 import { authClient } from "@/lib/auth/client";
 import { createWorkspaceSchema, workspaceSlug, type CreateWorkspaceInput } from "@/lib/validation/workspace";
+import { hardNavigate } from "@/components/shell/hard-navigate";
 
 export function CreateWorkspaceForm({ timeZones }: { timeZones: string[] }) {
-  const router = useRouter();
   const [error, setError] = useState<string | null>(null);
   const form = useForm<CreateWorkspaceInput>({ resolver: zodResolver(createWorkspaceSchema), defaultValues: { name: "", timeZone: "UTC" } });
   const { errors, isSubmitting } = form.formState;
@@ -34,8 +33,7 @@ export function CreateWorkspaceForm({ timeZones }: { timeZones: string[] }) {
       return;
     }
     await authClient.organization.setActive({ organizationId: created.data.id });
-    router.push("/campaigns");
-    router.refresh();
+    hardNavigate("/campaigns");
   }
 
   return (

@@ -1,14 +1,13 @@
 "use client";
 
 import Link from "next/link";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { authClient } from "@/lib/auth/client";
+import { hardNavigate } from "@/components/shell/hard-navigate";
 
 export function InvitationAnswer({ invitationId, workspaceId, workspaceName }: { invitationId: string; workspaceId: string; workspaceName: string }) {
-  const router = useRouter();
   const [pending, setPending] = useState<"accept" | "decline" | null>(null);
   const [declined, setDeclined] = useState(false);
   const [error, setError] = useState<string | null>(null);
@@ -23,8 +22,7 @@ export function InvitationAnswer({ invitationId, workspaceId, workspaceName }: {
       return;
     }
     await authClient.organization.setActive({ organizationId: workspaceId });
-    router.push("/settings");
-    router.refresh();
+    hardNavigate("/settings");
   }
 
   async function decline() {
