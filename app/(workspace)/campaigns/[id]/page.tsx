@@ -3,11 +3,19 @@ import { notFound } from "next/navigation";
 import { connection } from "next/server";
 import { CsvUpload } from "@/components/campaigns/csv-upload";
 import { LifecycleButtons } from "@/components/campaigns/lifecycle-buttons";
-import { Badge, Card, CardHeader, EmptyState, Notice, Table, Td, Th } from "@/components/ui";
+import { RefreshAndSubscribe } from "@/components/campaigns/refresh-and-subscribe";
+import type { CountsDay } from "@/components/charts/counts-chart";
+import type { PeekingLook } from "@/components/charts/peeking-cost-chart";
+import { CampaignDashboard } from "@/components/dashboard/campaign-dashboard";
+import { DecisionPanel } from "@/components/decisions/decision-panel";
+import { Badge, Card, CardHeader, Notice, Table, Td, Th } from "@/components/ui";
+import { listAnalysisDays } from "@/db/queries/analysis";
 import { getCampaign } from "@/db/queries/campaigns";
 import { listDailyCounts } from "@/db/queries/daily-counts";
+import { listAlertHistory, listDecisions } from "@/db/queries/decisions";
 import { roleAllows } from "@/lib/auth/permissions";
 import { requireRole } from "@/lib/auth/session";
+import { campaignSeries, campaignStatus } from "@/lib/campaigns/campaign-status";
 import { LIFECYCLE_MOVES, STATUS_LABELS } from "@/lib/campaigns/lifecycle";
 
 export const metadata: Metadata = { title: "Campaign · Peeksafe" };
@@ -21,17 +29,40 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
   const { id } = await params;
   const campaign = await getCampaign(membership.workspaceId, decodeURIComponent(id));
   if (!campaign) notFound();
-  const counts = await listDailyCounts(campaign.id);
+  const [counts, status, series, analysisDays, decisions, alerts] = await Promise.all([
+    listDailyCounts(campaign.id),
+    campaignStatus(campaign),
+    campaignSeries(campaign),
+    listAnalysisDays(campaign.id),
+    listDecisions(membership.workspaceId, campaign.id),
+    listAlertHistory(membership.workspaceId, campaign.id),
+  ]);
+  const canDecide = roleAllows(membership.role, { decision: ["record"] });
+  const canRecompute = roleAllows(membership.role, { campaign: ["recompute"] });
   const canUpload = roleAllows(membership.role, { campaign: ["upload"] }) && campaign.status !== "archived";
   const canMove = roleAllows(membership.role, { campaign: ["lifecycle"] });
   const unit = campaign.metric.unit ? ` ${campaign.metric.unit}` : "";
-  const byDay = new Map<string, Map<string, (typeof counts)[number]>>();
+  const running = new Map<string, { units: number; sum: number }>();
+  const countsByDay = new Map<string, CountsDay>();
   for (const count of counts) {
-    const day = byDay.get(count.day) ?? new Map();
-    day.set(count.arm, count);
-    byDay.set(count.day, day);
+    const total = running.get(count.arm) ?? { units: 0, sum: 0 };
+    total.units += count.units;
+    total.sum += count.sum;
+    running.set(count.arm, total);
+    const day = countsByDay.get(count.day) ?? { date: count.day, arms: {} };
+    day.arms[count.arm] = { units: count.units, sum: count.sum, cumulativeUnits: total.units, cumulativeSum: total.sum, revised: count.revision > 0 };
+    countsByDay.set(count.day, day);
   }
-  const days = [...byDay.keys()].sort().reverse();
+  const firstCallAt = alerts.filter((alert) => alert.kind !== "collecting").map((alert) => alert.createdAt).sort()[0] ?? null;
+  const revisedDays = counts
+    .filter((count) => count.revision > 0)
+    .map((count) => ({ date: count.day, arm: count.arm, revisedAfterCall: firstCallAt !== null && count.updatedAt.toISOString() > firstCallAt }));
+  const peekingLooks: PeekingLook[] = analysisDays
+    .filter((day) => day.peekingCost !== null)
+    .map((day) => ({ date: day.day, daysRun: day.daysRun, cost: day.peekingCost! }))
+    .filter((look, index, all) => index === 0 || look.cost !== all[index - 1].cost || index === all.length - 1);
+  const latest = analysisDays.at(-1);
+  const baseline = campaign.metric.kind === "conversion" ? campaign.baselineRate : campaign.baselineMean;
 
   return (
     <div className="space-y-6">
@@ -107,41 +138,34 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
         </div>
       </Card>
 
-      <Card aria-labelledby="counts-title">
-        <CardHeader id="counts-title" title="Daily counts" description="Each day's new units and outcomes per arm, newest first." />
-        {days.length === 0 ? (
-          <EmptyState title="No counts yet" description="The pipeline pushes them through the ingest API, or upload a CSV below." />
-        ) : (
-          <Table caption="Daily counts per arm">
-            <thead>
-              <tr>
-                <Th>Day</Th>
-                {campaign.arms.map((arm) => (
-                  <Th key={arm.key} numeric colSpan={1}>
-                    {arm.name}: units / {campaign.metric.kind === "conversion" ? "conversions" : `sum${unit}`}
-                  </Th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {days.map((day) => (
-                <tr key={day}>
-                  <Td>{day}</Td>
-                  {campaign.arms.map((arm) => {
-                    const count = byDay.get(day)!.get(arm.key);
-                    return (
-                      <Td key={arm.key} numeric>
-                        {count ? `${whole(count.units)} / ${whole(count.sum)}` : "—"}
-                        {count && count.revision > 0 ? <span className="ml-1 text-xs text-tremor-content">(revised)</span> : null}
-                      </Td>
-                    );
-                  })}
-                </tr>
-              ))}
-            </tbody>
-          </Table>
-        )}
-      </Card>
+      <CampaignDashboard
+        campaign={{
+          id: campaign.id,
+          name: campaign.name,
+          alpha: campaign.alpha,
+          metricKind: campaign.metric.kind,
+          metricUnit: campaign.metric.unit,
+          maxDays: campaign.maxDays,
+          minimumLiftAbsolute: baseline === null ? null : Math.abs(baseline) * campaign.minimumLift,
+          arms: campaign.arms.map((arm) => ({ key: arm.key, name: arm.name, isHoldout: arm.isHoldout })),
+        }}
+        initialStatus={status}
+        initialSeries={series.days}
+        peekingLooks={peekingLooks}
+        counts={[...countsByDay.values()]}
+        health={{
+          srmChiSquareP: latest?.srmP ?? null,
+          srmSequentialP: latest?.srmSequentialP ?? null,
+          revisedDays,
+          planChangedAt: campaign.planChangedAt,
+          analyzedAt: latest ? latest.computedAt.toISOString() : null,
+        }}
+      />
+
+      <div className="grid gap-6 lg:grid-cols-2">
+        <DecisionPanel campaignId={campaign.id} canDecide={canDecide} initial={{ campaignId: campaign.id, status: campaign.status, decisions, alerts }} />
+        <RefreshAndSubscribe campaignId={campaign.id} canRecompute={canRecompute} />
+      </div>
 
       {canUpload ? <CsvUpload campaignId={campaign.id} metric={campaign.metric.kind} /> : null}
     </div>
