@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { getDb, type Database } from "@/db";
 import { arms, campaigns, dailyCounts, type Campaign, type CampaignStatus } from "@/db/schema";
 
@@ -212,7 +212,7 @@ export type CampaignPatch = Partial<
     NewCampaignValues,
     "name" | "hypothesis" | "metricKind" | "metricName" | "metricUnit" | "baselineRate" | "baselineMean" | "baselineSd" | "minimumLift" | "alpha" | "power" | "sides" | "startDate" | "maxDays" | "dailyUnits" | "tau" | "plan"
   >
-> & { status?: CampaignStatus; planChangedAt?: Date; countsChangedAt?: Date };
+> & { status?: CampaignStatus; planChangedAt?: Date | SQL; countsChangedAt?: Date | SQL };
 
 /** Updates a campaign's columns, and replaces its arms when given (inside the caller's transaction). */
 export async function updateCampaign(
@@ -262,8 +262,21 @@ export async function campaignHasCounts(campaignId: string, executor: Executor =
   return row !== undefined;
 }
 
-/** Marks campaigns whose counts changed, for the worker to recompute. */
+/**
+ * Locks the campaign rows for the rest of the transaction, in id order (so two writers never
+ * deadlock). A recompute locks the same row before it reads its inputs, so the two serialize.
+ */
+export async function lockCampaignRows(tx: Transaction, campaignIds: string[]): Promise<void> {
+  if (campaignIds.length === 0) return;
+  await tx.select({ id: campaigns.id }).from(campaigns).where(inArray(campaigns.id, campaignIds)).orderBy(asc(campaigns.id)).for("update");
+}
+
+/**
+ * Marks campaigns whose counts changed, for the worker to recompute. Stamped with the database's
+ * `clock_timestamp()` (not the transaction's start, not the app's clock), the clock `analyzed_at`
+ * uses: a recompute that committed before this write is always older than the mark.
+ */
 export async function markCampaignsForRecompute(tx: Transaction, campaignIds: string[]): Promise<void> {
   if (campaignIds.length === 0) return;
-  await tx.update(campaigns).set({ countsChangedAt: sql`now()` }).where(inArray(campaigns.id, campaignIds));
+  await tx.update(campaigns).set({ countsChangedAt: sql`clock_timestamp()` }).where(inArray(campaigns.id, campaignIds));
 }

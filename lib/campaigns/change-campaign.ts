@@ -1,7 +1,7 @@
 import { sql } from "drizzle-orm";
 import { getDb } from "@/db";
 import { createAuditEvent } from "@/db/queries/audit-events";
-import { campaignHasCounts, getCampaign, updateCampaign, type CampaignDto, type CampaignPatch } from "@/db/queries/campaigns";
+import { campaignHasCounts, getCampaign, lockCampaign, updateCampaign, type CampaignDto, type CampaignPatch } from "@/db/queries/campaigns";
 import { listDailyCounts } from "@/db/queries/daily-counts";
 import { roleAllows } from "@/lib/auth/permissions";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/lib/errors";
@@ -57,7 +57,9 @@ export async function changeCampaign(workspaceId: string, reference: string, act
     const located = await getCampaign(workspaceId, reference, tx);
     if (!located) throw new NotFoundError("No such campaign in this workspace.");
     await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`campaign:${located.id}`}, 0))`);
-    const campaign = (await getCampaign(workspaceId, located.id, tx))!;
+    // The row lock serializes this change with a recompute reading the plan.
+    const campaign = await lockCampaign(tx, workspaceId, located.id);
+    if (!campaign) throw new NotFoundError("No such campaign in this workspace.");
     const patch: CampaignPatch = {};
     const audits: { action: string; reason?: string; detail: Record<string, unknown> }[] = [];
 
@@ -71,7 +73,11 @@ export async function changeCampaign(workspaceId: string, reference: string, act
     if (wantsEdit && campaign.status === "archived") throw new ConflictError("An archived campaign cannot be edited.");
     if (input.name !== undefined) patch.name = input.name;
     if (input.hypothesis !== undefined) patch.hypothesis = input.hypothesis;
-    if (input.maxDays !== undefined) patch.maxDays = input.maxDays;
+    if (input.maxDays !== undefined && input.maxDays !== campaign.maxDays) {
+      patch.maxDays = input.maxDays;
+      // The horizon is an input of the analysis: the worker recomputes the counts under it.
+      if (await campaignHasCounts(campaign.id, tx)) patch.countsChangedAt = sql`clock_timestamp()`;
+    }
     if (input.dailyUnits !== undefined) patch.dailyUnits = input.dailyUnits;
 
     const before = planOf(campaign);
@@ -93,8 +99,9 @@ export async function changeCampaign(workspaceId: string, reference: string, act
         if (input.startDate !== undefined && (await listDailyCounts(campaign.id, tx)).some((count) => count.day < input.startDate!)) {
           throw new ConflictError("Counts exist before the new start date.");
         }
-        patch.planChangedAt = new Date();
-        patch.countsChangedAt = new Date();
+        // The database's clock, the one analyzed_at uses, read after the row lock.
+        patch.planChangedAt = sql`clock_timestamp()`;
+        patch.countsChangedAt = sql`clock_timestamp()`;
         audits.push({ action: "campaign.plan_change", reason: input.reason, detail: { before: { ...before, startDate: campaign.startDate, tau: campaign.tau }, after: { ...nextPlan, startDate: input.startDate ?? campaign.startDate } } });
       } else {
         audits.push({ action: "campaign.plan_edit", detail: { before, after: nextPlan } });

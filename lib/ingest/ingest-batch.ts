@@ -2,7 +2,7 @@ import { createHash, randomUUID } from "node:crypto";
 import { and, eq, inArray, or, sql } from "drizzle-orm";
 import { getDb } from "@/db";
 import { listArmsOfCampaigns } from "@/db/queries/arms";
-import { markCampaignsForRecompute, type Transaction } from "@/db/queries/campaigns";
+import { lockCampaignRows, markCampaignsForRecompute, type Transaction } from "@/db/queries/campaigns";
 import { createCountRevisions, lockCountsOfArms, upsertDailyCounts, type CountWrite, type StoredCount } from "@/db/queries/daily-counts";
 import { createIngestBatch, getIngestBatch } from "@/db/queries/ingest-batches";
 import { campaigns, organizations } from "@/db/schema";
@@ -50,7 +50,7 @@ interface CampaignRef {
  * campaigns (throws ValidationError naming every bad row), replaces changed (arm, day) counts keeping
  * the old values as revisions, leaves identical ones alone, records the batch under its idempotency
  * key and marks the campaigns for recompute — in one transaction. Concurrent batches on a campaign
- * serialize on an advisory lock; a replay of a key returns the first answer, another body under the
+ * serialize on an advisory lock, and with the recompute on the campaign rows (locked in id order); a replay of a key returns the first answer, another body under the
  * same key throws ConflictError.
  */
 export async function ingestBatch(request: IngestRequest): Promise<IngestOutcome> {
@@ -69,6 +69,8 @@ export async function ingestBatch(request: IngestRequest): Promise<IngestOutcome
     const found = await resolveCampaigns(tx, request.workspaceId, references);
     const campaignIds = [...new Set([...found.values()].map((campaign) => campaign.id))].sort();
     for (const id of campaignIds) await tx.execute(sql`select ${lockKey(`campaign:${id}`)}`);
+    // Row locks too: a recompute holds the row while it reads the counts, so it sees this batch whole or not at all.
+    await lockCampaignRows(tx, campaignIds);
     const fresh = await resolveCampaigns(tx, request.workspaceId, references);
     const timeZone = await workspaceTimeZone(tx, request.workspaceId);
     const today = todayIn(timeZone);
