@@ -39,6 +39,11 @@ const statusDay = {
   health: z.object({ srmP: z.number().nullable(), issues: z.array(z.object({ rule: z.string(), date: z.string().nullable(), arm: z.string(), message: z.string() })) }),
 };
 
+const freshness = {
+  analyzedAt: z.string().nullable().describe("When the worker last analysed the campaign; null before the first analysis"),
+  stale: z.boolean().describe("Counts or the plan changed after the last analysis: the next worker pass refreshes the numbers"),
+};
+
 const statusSchema = z.object({
   id: z.string().uuid(),
   name: z.string(),
@@ -47,9 +52,10 @@ const statusSchema = z.object({
   ...statusDay,
   planChangedAt: z.string().nullable(),
   updatedAt: z.string(),
+  ...freshness,
 });
 
-const seriesSchema = z.object({ id: z.string().uuid(), name: z.string(), days: z.array(z.object({ date: z.string(), ...statusDay })) });
+const seriesSchema = z.object({ id: z.string().uuid(), name: z.string(), days: z.array(z.object({ date: z.string(), ...statusDay })), ...freshness });
 
 const problemSchema = z.object({
   type: z.string(),
@@ -109,7 +115,7 @@ export function openApiDocument(serverUrl: string) {
       },
       "/api/v1/campaigns/{id}/status": {
         parameters: [idParameter],
-        get: { summary: "The latest call and statistics", responses: { "200": { description: "Status", ...json("CampaignStatus") }, ...readErrors } },
+        get: { summary: "The latest call and statistics, as the worker last stored them", responses: { "200": { description: "Status", ...json("CampaignStatus") }, ...readErrors } },
       },
       "/api/v1/campaigns/{id}/series": {
         parameters: [idParameter],

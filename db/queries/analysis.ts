@@ -160,6 +160,69 @@ export async function getAnalysisRefresh(workspaceId: string, campaignId: string
   return { campaignId: row.campaignId, analyzedAt: row.analyzedAt, countsChangedAt: row.countsChangedAt, currentCall: row.currentCall, pending, days: row.days };
 }
 
+export interface StoredAnalysisDay {
+  day: string;
+  daysRun: number;
+  call: CallName;
+  liftAbsolute: number | null;
+  liftRelative: number | null;
+  sequenceLow: number | null;
+  sequenceHigh: number | null;
+  intervalLow: number | null;
+  intervalHigh: number | null;
+  fixedP: number | null;
+  sequentialP: number | null;
+  srmSequentialP: number | null;
+  detail: unknown;
+}
+
+export interface StoredAnalysis {
+  /** When the worker last analysed the campaign; null before the first analysis. */
+  analyzedAt: Date | null;
+  countsChangedAt: Date | null;
+  planChangedAt: Date | null;
+  /** The worker's analysis days, oldest first (empty before the first analysis). */
+  days: StoredAnalysisDay[];
+}
+
+/**
+ * The worker's stored analysis of one campaign and when it was made, read in one snapshot (a
+ * recompute committing meanwhile is seen whole or not at all). Null when the campaign is gone.
+ */
+export async function getStoredAnalysis(campaignId: string): Promise<StoredAnalysis | null> {
+  return getDb().transaction(
+    async (tx) => {
+      const [campaign] = await tx
+        .select({ analyzedAt: campaigns.analyzedAt, countsChangedAt: campaigns.countsChangedAt, planChangedAt: campaigns.planChangedAt })
+        .from(campaigns)
+        .where(eq(campaigns.id, campaignId))
+        .limit(1);
+      if (!campaign) return null;
+      const days = await tx
+        .select({
+          day: analysisDays.day,
+          daysRun: analysisDays.daysRun,
+          call: analysisDays.call,
+          liftAbsolute: analysisDays.liftAbsolute,
+          liftRelative: analysisDays.liftRelative,
+          sequenceLow: analysisDays.sequenceLow,
+          sequenceHigh: analysisDays.sequenceHigh,
+          intervalLow: analysisDays.intervalLow,
+          intervalHigh: analysisDays.intervalHigh,
+          fixedP: analysisDays.fixedP,
+          sequentialP: analysisDays.sequentialP,
+          srmSequentialP: analysisDays.srmSequentialP,
+          detail: analysisDays.detail,
+        })
+        .from(analysisDays)
+        .where(eq(analysisDays.campaignId, campaignId))
+        .orderBy(asc(analysisDays.day));
+      return { ...campaign, days };
+    },
+    { isolationLevel: "repeatable read", accessMode: "read only" },
+  );
+}
+
 /** Every analysis day of a campaign, oldest first (tests and the digest read these). */
 export async function listAnalysisDays(campaignId: string) {
   return getDb().select().from(analysisDays).where(eq(analysisDays.campaignId, campaignId)).orderBy(asc(analysisDays.day));

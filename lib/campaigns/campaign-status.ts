@@ -1,6 +1,6 @@
+import { z } from "zod";
 import type { CampaignDto } from "@/db/queries/campaigns";
-import { listDailyCounts } from "@/db/queries/daily-counts";
-import { analyzeCampaign, type CampaignAnalysis, type CampaignPlan, type DayResult, type Interval } from "@/lib/sequential";
+import { getStoredAnalysis, type StoredAnalysis, type StoredAnalysisDay } from "@/db/queries/analysis";
 
 /** An interval as JSON: an open end (one-sided bound) is null. */
 export type JsonInterval = [number | null, number | null] | null;
@@ -16,7 +16,15 @@ export interface StatusDay {
   health: { srmP: number | null; issues: { rule: string; date: string | null; arm: string; message: string }[] };
 }
 
-export interface CampaignStatus {
+/** When the numbers were computed, and whether newer counts (or a plan change) wait for the worker. */
+export interface AnalysisFreshness {
+  /** ISO time of the worker's last analysis; null before the first one. */
+  analyzedAt: string | null;
+  /** True when counts or the plan changed after the last analysis: the next worker pass will refresh the numbers. */
+  stale: boolean;
+}
+
+export interface CampaignStatus extends AnalysisFreshness {
   id: string;
   name: string;
   status: string;
@@ -31,65 +39,73 @@ export interface CampaignStatus {
   updatedAt: string;
 }
 
-function jsonInterval(interval: Interval | null): JsonInterval {
-  if (!interval) return null;
-  return interval.map((end) => (Number.isFinite(end) ? end : null)) as [number | null, number | null];
+export interface CampaignSeries extends AnalysisFreshness {
+  id: string;
+  name: string;
+  days: StatusDay[];
 }
 
-/** The engine's plan for a stored campaign (τ as stored, so the guarantee does not move). */
-export function enginePlan(campaign: CampaignDto): CampaignPlan {
-  return {
-    metric: campaign.metric.kind,
-    significanceLevel: campaign.alpha,
-    power: campaign.power,
-    sides: campaign.sides,
-    baselineRate: campaign.metric.kind === "conversion" ? (campaign.baselineRate ?? undefined) : (campaign.baselineMean ?? undefined),
-    standardDeviation: campaign.baselineSd ?? undefined,
-    minimumLift: campaign.minimumLift,
-    tau: campaign.tau,
-    maxDays: campaign.maxDays,
-    arms: campaign.arms.map((arm) => ({ key: arm.key, share: arm.share })),
-  };
+// The part of analysis_days.detail these endpoints read (written by cron/recompute.ts from the engine's day result).
+const storedDetailSchema = z.looseObject({
+  arms: z.record(z.string(), z.looseObject({ n: z.number() })),
+  issues: z.array(z.object({ rule: z.string(), date: z.string().nullable(), arm: z.string(), message: z.string() })),
+});
+
+function jsonEnd(value: number | null): number | null {
+  return value !== null && Number.isFinite(value) ? value : null;
 }
 
-/** Runs the statistics engine on a campaign's stored counts (compute on read, until the worker stores analysis days). */
-export async function analyzeStoredCampaign(campaign: CampaignDto): Promise<CampaignAnalysis> {
-  const counts = await listDailyCounts(campaign.id);
-  return analyzeCampaign(
-    enginePlan(campaign),
-    counts.map((count) => ({ date: count.day, arm: count.arm, n: count.units, sum: count.sum, sumSq: count.sumSquares })),
-    { peekingCost: false },
-  );
+function jsonInterval(low: number | null, high: number | null): JsonInterval {
+  if (low === null && high === null) return null;
+  return [jsonEnd(low), jsonEnd(high)];
 }
 
-function toStatusDay(campaign: CampaignDto, day: DayResult, issuesSoFar: StatusDay["health"]["issues"]): StatusDay {
+function freshness(stored: StoredAnalysis | null): AnalysisFreshness {
+  if (!stored) return { analyzedAt: null, stale: false };
+  const { analyzedAt, countsChangedAt, planChangedAt } = stored;
+  const countsNewer = countsChangedAt !== null && (analyzedAt === null || countsChangedAt > analyzedAt);
+  const planNewer = analyzedAt !== null && planChangedAt !== null && planChangedAt > analyzedAt;
+  return { analyzedAt: analyzedAt?.toISOString() ?? null, stale: countsNewer || planNewer };
+}
+
+function toStatusDay(campaign: CampaignDto, day: StoredAnalysisDay, issuesSoFar: StatusDay["health"]["issues"]): StatusDay {
+  const detail = storedDetailSchema.parse(day.detail);
   const horizonReached =
-    day.dayNumber >= campaign.maxDays || Object.entries(campaign.plan.perArm).every(([arm, needed]) => (day.arms[arm]?.n ?? 0) >= needed);
+    day.daysRun >= campaign.maxDays || Object.entries(campaign.plan.perArm).every(([arm, needed]) => (detail.arms[arm]?.n ?? 0) >= needed);
   return {
-    date: day.date,
-    daysRun: day.dayNumber,
+    date: day.day,
+    daysRun: day.daysRun,
     call: day.call,
-    lift: { absolute: day.lift.absolute, relative: day.lift.relative, cs: jsonInterval(day.sequential.cs), ci: jsonInterval(day.fixed.ci) },
-    sequential: { p: day.sequential.p },
-    fixed: { p: day.fixed.p, horizonReached },
-    health: { srmP: day.health.srm.sequential?.p ?? null, issues: issuesSoFar },
+    lift: {
+      absolute: jsonEnd(day.liftAbsolute),
+      relative: jsonEnd(day.liftRelative),
+      cs: jsonInterval(day.sequenceLow, day.sequenceHigh),
+      ci: jsonInterval(day.intervalLow, day.intervalHigh),
+    },
+    sequential: { p: day.sequentialP },
+    fixed: { p: day.fixedP, horizonReached },
+    health: { srmP: day.srmSequentialP, issues: issuesSoFar },
   };
 }
 
-/** Every day of the campaign, with the issues found up to that day. */
-export async function campaignSeries(campaign: CampaignDto): Promise<StatusDay[]> {
-  const analysis = await analyzeStoredCampaign(campaign);
+function seriesDays(campaign: CampaignDto, stored: StoredAnalysis | null): StatusDay[] {
   const issues: StatusDay["health"]["issues"] = [];
-  return analysis.days.map((day) => {
-    issues.push(...day.health.issues.map((issue) => ({ rule: issue.rule, date: issue.date, arm: issue.arm, message: issue.message })));
+  return (stored?.days ?? []).map((day) => {
+    issues.push(...storedDetailSchema.parse(day.detail).issues.map(({ rule, date, arm, message }) => ({ rule, date, arm, message })));
     return toStatusDay(campaign, day, [...issues]);
   });
 }
 
-/** The latest day of the campaign as `GET /api/v1/campaigns/:id/status` answers it. */
+/** Every day of the worker's stored analysis, with the issues found up to that day (empty before the first analysis). */
+export async function campaignSeries(campaign: CampaignDto): Promise<CampaignSeries> {
+  const stored = await getStoredAnalysis(campaign.id);
+  return { id: campaign.id, name: campaign.name, days: seriesDays(campaign, stored), ...freshness(stored) };
+}
+
+/** The latest stored analysis day as `GET /api/v1/campaigns/:id/status` answers it ("collecting" and null numbers before the first analysis). */
 export async function campaignStatus(campaign: CampaignDto): Promise<CampaignStatus> {
-  const series = await campaignSeries(campaign);
-  const last = series.at(-1);
+  const stored = await getStoredAnalysis(campaign.id);
+  const last = seriesDays(campaign, stored).at(-1);
   return {
     id: campaign.id,
     name: campaign.name,
@@ -103,5 +119,6 @@ export async function campaignStatus(campaign: CampaignDto): Promise<CampaignSta
     health: last?.health ?? { srmP: null, issues: [] },
     planChangedAt: campaign.planChangedAt,
     updatedAt: campaign.countsChangedAt ?? campaign.updatedAt,
+    ...freshness(stored),
   };
 }

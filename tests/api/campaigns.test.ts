@@ -3,6 +3,7 @@ import { and, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db";
 import type { CampaignDto } from "@/db/queries/campaigns";
+import { runRecompute } from "@/cron/recompute";
 import { auditEvents } from "@/db/schema";
 import { computePlan } from "@/lib/campaigns/compute-plan";
 import { sampleSizeTwoProportions } from "@/lib/sequential";
@@ -202,7 +203,7 @@ describe("PATCH /api/v1/campaigns/:id", () => {
 });
 
 describe("GET /api/v1/campaigns/:id/status and /series", () => {
-  it("answers the documented shape, computed from the stored counts", async () => {
+  it("answers the documented shape, from the worker's analysis of the stored counts", async () => {
     const key = await createApiKey(northwind, ["ingest"]);
     const campaign = await createCampaign(northwind, { startDate: dayFromToday(-3) });
     const empty = await northwind.viewer.client.json<Record<string, unknown>>(`/api/v1/campaigns/${campaign.id}/status`);
@@ -213,6 +214,11 @@ describe("GET /api/v1/campaigns/:id/status and /series", () => {
       countRow(campaign.slug, "treatment", dayFromToday(offset), 9_000, 540),
     ]);
     expect((await pushCounts(key.key, rows)).status).toBe(200);
+    // The numbers are the worker's: none until it has analysed the running campaign.
+    const waiting = await northwind.viewer.client.json<Record<string, unknown>>(`/api/v1/campaigns/${campaign.id}/status`);
+    expect(waiting.body).toMatchObject({ call: "collecting", asOf: null, daysRun: 0, analyzedAt: null, stale: true, lift: { absolute: null, relative: null, cs: null, ci: null } });
+    expect((await northwind.marketer.client.json(`/api/v1/campaigns/${campaign.id}`, { method: "PATCH", json: { status: "running" } })).status).toBe(200);
+    await runRecompute({ wait: true, workspaceIds: [northwind.id] });
     const status = await northwind.viewer.client.json<{
       call: string;
       asOf: string;
@@ -222,6 +228,8 @@ describe("GET /api/v1/campaigns/:id/status and /series", () => {
       fixed: { p: number; horizonReached: boolean };
       health: { srmP: number; issues: unknown[] };
       updatedAt: string;
+      analyzedAt: string;
+      stale: boolean;
     }>(`/api/v1/campaigns/${campaign.id}/status`);
     expect(status.body.asOf).toBe(dayFromToday(-1));
     expect(status.body.daysRun).toBe(3);
@@ -231,8 +239,10 @@ describe("GET /api/v1/campaigns/:id/status and /series", () => {
     expect(status.body.sequential.p).toBeGreaterThan(0);
     expect(status.body.fixed.horizonReached).toBe(false);
     expect(status.body.health.issues).toEqual([]);
-    const series = await northwind.viewer.client.json<{ days: { date: string; daysRun: number }[] }>(`/api/v1/campaigns/${campaign.id}/series`);
+    expect(status.body).toMatchObject({ analyzedAt: expect.any(String), stale: false });
+    const series = await northwind.viewer.client.json<{ days: { date: string; daysRun: number }[]; analyzedAt: string; stale: boolean }>(`/api/v1/campaigns/${campaign.id}/series`);
     expect(series.body.days.map((day) => day.daysRun)).toEqual([1, 2, 3]);
+    expect(series.body).toMatchObject({ analyzedAt: status.body.analyzedAt, stale: false });
     expect((await other.viewer.client.json(`/api/v1/campaigns/${campaign.id}/status`)).status).toBe(404);
     expect((await new TestClient().json(`/api/v1/campaigns/${campaign.id}/series`)).status).toBe(401);
   });

@@ -13,7 +13,7 @@ export async function GET(request: Request, context: { params: Promise<{ id: str
     const caller = await authorizeRequest(request, { campaign: ["read"] }, { allowKey: true });
     const campaign = await getCampaign(caller.workspaceId, campaignReferenceSchema.parse((await context.params).id));
     if (!campaign) throw new NotFoundError("No such campaign in this workspace.");
-    return Response.json({ id: campaign.id, name: campaign.name, days: await campaignSeries(campaign) }, { headers: { "cache-control": "no-store" } });
+    return Response.json(await campaignSeries(campaign), { headers: { "cache-control": "no-store" } });
   } catch (error) {
     return toResponse(error, instance);
   }
