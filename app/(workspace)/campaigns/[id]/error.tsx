@@ -1,0 +1,7 @@
+"use client";
+
+import { ScreenError } from "@/components/dashboard/screen-states";
+
+export default function ErrorScreen({ reset }: { error: Error; reset: () => void }) {
+  return <ScreenError what="The campaign" reset={reset} />;
+}

@@ -1,0 +1,5 @@
+import { ScreenLoading } from "@/components/dashboard/screen-states";
+
+export default function Loading() {
+  return <ScreenLoading label="Loading the planner…" />;
+}
