@@ -22,6 +22,8 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   // `npm test` runs tsc over the whole project as its own step; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },
+  // forbidden() renders app/forbidden.tsx for a page the member's role may not open.
+  experimental: { authInterrupts: true },
   reactStrictMode: true,
   serverExternalPackages: ["pg", "pino", "smtp-server", "mailparser", "nodemailer"],
   async headers() {

@@ -29,7 +29,8 @@ async function ensureUser(auth: ReturnType<typeof createAuth>, user: (typeof DEM
 
 /** Creates the demo workspace and one verified user per role; safe to run again. Returns the workspace id. */
 export async function seedDemoWorkspace(): Promise<string> {
-  const auth = createAuth();
+  // Demo accounts are created verified: no confirmation mail to addresses nobody reads.
+  const auth = createAuth([], { sendVerificationOnSignUp: false });
   const db = getDb();
   const ids = new Map<string, string>();
   for (const user of DEMO_USERS) ids.set(user.email, await ensureUser(auth, user));

@@ -15,7 +15,7 @@ export const API_KEY_PREFIX = "psk_";
 export const API_KEY_REQUESTS_PER_MINUTE = 600;
 
 /** Builds the better-auth instance; the Next server adds `nextCookies()` as its last plugin. */
-export function createAuth(extraPlugins: BetterAuthPlugin[] = []) {
+export function createAuth(extraPlugins: BetterAuthPlugin[] = [], options: { sendVerificationOnSignUp?: boolean } = {}) {
   const env = getEnv();
   const secure = env.SECURE_COOKIES ? env.SECURE_COOKIES === "true" : env.APP_URL.startsWith("https://");
   return betterAuth({
@@ -61,7 +61,7 @@ export function createAuth(extraPlugins: BetterAuthPlugin[] = []) {
       },
     },
     emailVerification: {
-      sendOnSignUp: true,
+      sendOnSignUp: options.sendVerificationOnSignUp ?? true,
       autoSignInAfterVerification: true,
       sendVerificationEmail: async ({ user, url }) => {
         await sendVerificationMail(user.email, url);

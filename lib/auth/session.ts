@@ -1,5 +1,5 @@
 import { headers } from "next/headers";
-import { redirect } from "next/navigation";
+import { forbidden, redirect } from "next/navigation";
 import { cache } from "react";
 import { getMembership, listMemberships, type Membership } from "@/db/queries/members";
 import { ForbiddenError } from "@/lib/errors";
@@ -39,5 +39,12 @@ export const requireWorkspace = cache(async (): Promise<WorkspaceContext> => {
 export async function requireRole(permission: Permission): Promise<WorkspaceContext> {
   const context = await requireWorkspace();
   if (!roleAllows(context.membership.role, permission)) throw new ForbiddenError();
+  return context;
+}
+
+/** For pages: renders the "not for your role" screen (app/forbidden.tsx) unless the role grants `permission`. */
+export async function requirePageRole(permission: Permission): Promise<WorkspaceContext> {
+  const context = await requireWorkspace();
+  if (!roleAllows(context.membership.role, permission)) forbidden();
   return context;
 }
