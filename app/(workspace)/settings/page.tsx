@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { headers } from "next/headers";
+import Link from "next/link";
 import { Badge } from "@/components/ui/badge";
 import { Card, CardHeader } from "@/components/ui/card";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -37,7 +38,10 @@ export default async function SettingsPage() {
       <div>
         <h1 className="text-2xl font-semibold tracking-tight">Settings</h1>
         <p className="mt-1 text-sm text-tremor-content dark:text-dark-tremor-content">
-          {membership.workspaceName} · your role: <strong>{membership.role}</strong>
+          {membership.workspaceName} · your role: <strong>{membership.role}</strong> ·{" "}
+          <Link href="/settings/alerts" className="text-pine-800 underline dark:text-pine-200">
+            Alert rules
+          </Link>
         </p>
       </div>
 
