@@ -208,6 +208,7 @@ export function CampaignForm() {
         <Card>
           <CardHeader title="Fixed-horizon plan" description="Units each arm needs, from the plan as typed." />
           {preview?.ok ? (
+            <>
             <dl className="space-y-2 text-sm" data-testid="plan-preview">
               {Object.entries(preview.plan.perArm).map(([key, units]) => (
                 <div key={key} className="flex justify-between gap-4">
@@ -225,12 +226,13 @@ export function CampaignForm() {
                   {preview.plan.days === null ? "—" : `${preview.plan.days} days`}
                 </dd>
               </div>
+            </dl>
               {preview.plan.days !== null && values.maxDays !== undefined && preview.plan.days > Number(values.maxDays) ? (
-                <Notice tone="warning" title="Longer than the maximum duration">
+                <Notice tone="warning" title="Longer than the maximum duration" className="mt-3">
                   At the expected traffic the plan needs {preview.plan.days} days; the campaign stops at {String(values.maxDays)}.
                 </Notice>
               ) : null}
-            </dl>
+            </>
           ) : (
             <p className="text-sm text-tremor-content">{preview && !preview.ok ? preview.reason : "Complete the plan to see the sample size."}</p>
           )}

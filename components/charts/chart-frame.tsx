@@ -1,8 +1,9 @@
 "use client";
 
+import { DataTable } from "@/components/dashboard/data-table";
 import { useId, useState, type ReactNode } from "react";
 import { DownloadCsvButton } from "@/components/dashboard/download-csv-button";
-import { Button, Card, Table, Td, Th } from "@/components/ui";
+import { Button, Card, Td, Th } from "@/components/ui";
 import type { CsvCell } from "@/lib/csv-export";
 
 export interface ChartTable {
@@ -58,7 +59,7 @@ export function ChartFrame({
       </div>
       {legend ? <div className="mb-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-tremor-content-emphasis dark:text-dark-tremor-content-emphasis">{legend}</div> : null}
       {showTable ? (
-        <Table caption={`${title}: the numbers`}>
+        <DataTable caption={`${title}: the numbers`}>
           <thead>
             <tr>
               {table.columns.map((column) => (
@@ -79,7 +80,7 @@ export function ChartFrame({
               </tr>
             ))}
           </tbody>
-        </Table>
+        </DataTable>
       ) : (
         <div data-testid={testId} className="h-64 w-full sm:h-72">
           {children}

@@ -111,6 +111,11 @@ export function CampaignDashboard({
             <dd className="text-right">{formatP(current.fixed.p)}</dd>
           </dl>
         </div>
+        {(current as { stale?: boolean }).stale ? (
+          <Notice tone="info" title="New counts are waiting for the worker" className="mt-3">
+            Counts or the plan changed after the last analysis; the numbers refresh on the worker&apos;s next pass.
+          </Notice>
+        ) : null}
         {status.error ? (
           <Notice tone="error" title="Could not refresh">
             The latest status could not be loaded; the numbers shown are the last ones received.

@@ -1,8 +1,9 @@
 "use client";
 
+import { DataTable } from "@/components/dashboard/data-table";
 import { useEffect, useState } from "react";
 import useSWR from "swr";
-import { Card, CardHeader, Notice, Select, Table, Td, Th, controlClasses } from "@/components/ui";
+import { Card, CardHeader, Notice, Select, Td, Th, controlClasses } from "@/components/ui";
 import type { PlannerResult } from "@/lib/planner/plan-design";
 import { DownloadCsvButton } from "./download-csv-button";
 import { formatCount, formatLiftPercent, formatPercent } from "./format";
@@ -165,7 +166,7 @@ export function PlannerForm() {
                   />
                 }
               />
-              <Table caption="Expected days to a call by true lift">
+              <DataTable caption="Expected days to a call by true lift">
                 <thead>
                   <tr>
                     <Th>True lift</Th>
@@ -192,7 +193,7 @@ export function PlannerForm() {
                     </tr>
                   ))}
                 </tbody>
-              </Table>
+              </DataTable>
               <p className="mt-3 text-xs text-tremor-content dark:text-dark-tremor-content">
                 τ = {data.tau.toPrecision(3)} (tuned to be tightest at the fixed horizon). The fixed horizon needs its full {data.fixed.days} days whatever the true lift;
                 the always-valid design may be read every day and stops as soon as the evidence suffices.

@@ -1,9 +1,10 @@
 "use client";
 
+import { DataTable } from "@/components/dashboard/data-table";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { Sparkline } from "@/components/charts/sparkline";
-import { Badge, Card, EmptyState, Notice, Select, Table, Td, Th, buttonClasses, controlClasses } from "@/components/ui";
+import { Badge, Card, EmptyState, Notice, Select, Td, Th, buttonClasses, controlClasses } from "@/components/ui";
 import type { PortfolioRow } from "@/db/queries/portfolio";
 import { CALLS, CAMPAIGN_STATUSES, type CallName, type CampaignStatus } from "@/db/schema/campaigns";
 import { CALL_WORDS } from "@/lib/alerts/call-words";
@@ -96,7 +97,7 @@ export function Portfolio({ initial, canCreate, refreshInterval }: { initial: Po
   return (
     <div className="space-y-4">
       <p className="text-sm text-tremor-content dark:text-dark-tremor-content" aria-live="polite">
-        {campaigns.length} campaigns · {needsDecision} running with a call to act on{isValidating ? " · refreshing…" : ""}
+        {campaigns.length} {campaigns.length === 1 ? "campaign" : "campaigns"} · {needsDecision} running with a call to act on{isValidating ? " · refreshing…" : ""}
       </p>
       {error ? <Notice tone="error" title="Could not refresh">{error instanceof Error ? error.message : "The portfolio could not be loaded."} The numbers below are the last ones received.</Notice> : null}
       <form role="search" aria-label="Filter campaigns" className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4" onSubmit={(event) => event.preventDefault()}>
@@ -149,7 +150,7 @@ export function Portfolio({ initial, canCreate, refreshInterval }: { initial: Po
         {shown.length === 0 ? (
           <EmptyState title="No campaign matches" description="Change the search or the filters." />
         ) : (
-          <Table caption="Campaigns with their calls" className="min-w-[60rem]">
+          <DataTable caption="Campaigns with their calls" className="min-w-[60rem]">
             <thead>
               <tr>
                 <Th>Campaign</Th>
@@ -195,7 +196,7 @@ export function Portfolio({ initial, canCreate, refreshInterval }: { initial: Po
                 </tr>
               ))}
             </tbody>
-          </Table>
+          </DataTable>
         )}
       </Card>
     </div>

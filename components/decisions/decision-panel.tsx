@@ -1,7 +1,7 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import useSWR from "swr";
 import { CallBadge } from "@/components/dashboard/call-badge";
 import { formatTimestamp } from "@/components/dashboard/format";
@@ -42,6 +42,10 @@ export function DecisionPanel({ campaignId, canDecide, initial }: { campaignId: 
   const [pending, setPending] = useState(false);
   const [problem, setProblem] = useState<{ message: string; fields: Record<string, string> } | null>(null);
   const [recorded, setRecorded] = useState<string | null>(null);
+  // A server refresh (new counts, a new call) brings a new `initial`: take it over.
+  useEffect(() => {
+    void mutate(initial, { revalidate: false });
+  }, [initial, mutate]);
   const history = data ?? initial;
   const open = history.status === "running" || history.status === "paused";
 

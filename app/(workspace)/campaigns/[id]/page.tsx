@@ -1,3 +1,4 @@
+import { DataTable } from "@/components/dashboard/data-table";
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { connection } from "next/server";
@@ -8,7 +9,7 @@ import type { CountsDay } from "@/components/charts/counts-chart";
 import type { PeekingLook } from "@/components/charts/peeking-cost-chart";
 import { CampaignDashboard } from "@/components/dashboard/campaign-dashboard";
 import { DecisionPanel } from "@/components/decisions/decision-panel";
-import { Badge, Card, CardHeader, Notice, Table, Td, Th } from "@/components/ui";
+import { Badge, Card, CardHeader, Notice, Td, Th } from "@/components/ui";
 import { listAnalysisDays } from "@/db/queries/analysis";
 import { getCampaign } from "@/db/queries/campaigns";
 import { listDailyCounts } from "@/db/queries/daily-counts";
@@ -108,7 +109,7 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
             <dt>Always-valid tuning τ</dt>
             <dd className="tabular-nums">{campaign.tau.toPrecision(3)}</dd>
           </dl>
-          <Table caption="Planned units per arm" className="min-w-0">
+          <DataTable caption="Planned units per arm" className="min-w-0">
             <thead>
               <tr>
                 <Th>Arm</Th>
@@ -134,7 +135,7 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
                 </Td>
               </tr>
             </tbody>
-          </Table>
+          </DataTable>
         </div>
       </Card>
 
