@@ -44,7 +44,11 @@ export interface ArmDayResult {
     /** z with the unpooled standard error (its p is left to {@link twoSampleZTest}). */
     readonly zUnpooled: number | null;
   };
-  /** Always-valid: mSPRT p-value and running-intersected confidence sequences (absolute, relative). */
+  /**
+   * Always-valid at α/k: the mSPRT p-value of the absolute lift and the running-intersected confidence
+   * sequences of the absolute lift and of the relative lift `m_T/m_C − 1` (null without a positive
+   * baseline). The call agrees with both sequences (see {@link decideCall}).
+   */
   readonly sequential: { readonly p: number; readonly cs: Interval; readonly relativeCs: Interval | null };
   readonly call: Call;
 }
@@ -65,7 +69,10 @@ export interface DayResult {
       readonly sequential: { readonly bayesFactor: number; readonly p: number } | null;
     };
   };
-  /** The treatment arm with the smallest always-valid p (plan order on ties); the fields below are its. */
+  /**
+   * The arm the campaign call rests on: among the treatment arms whose own call is the campaign's
+   * call, the one with the smallest always-valid p (plan order on ties); the fields below are its.
+   */
   readonly leadingArm: string;
   readonly lift: ArmDayResult["lift"];
   readonly fixed: ArmDayResult["fixed"];
@@ -103,14 +110,23 @@ export interface CampaignAnalysis {
  * schedule is computed once, for the last day (it is too costly for every day of every campaign).
  *
  * Rules (see {@link decideCall}): a failed health check (any issue dated on or before the day, or the
- * anytime-valid SRM p below 0.001) makes the day `suspect`; `flat` uses `baselineRate·minimumLift`;
+ * anytime-valid SRM p below 0.001) makes the day `suspect`. With a positive baseline the engine
+ * runs two sequences per arm, each at α/k and running-intersected: the absolute lift `Δ` with τ, and
+ * the log ratio log(m_T/m_C) (delta-method variance) with τ/baseline, reported as `m_T/m_C − 1`.
+ * A stop needs both to agree: `harm` both upper ends < 0; `lift` p < α/k and both lower ends > 0;
+ * `flat` ("the confidence sequence excludes the minimum lift worth having") the relative upper end
+ * < `minimumLift` (the plan's relative minimum) and the absolute upper end < `baselineRate·minimumLift`.
+ * So the call never contradicts an interval the product prints beside it, whatever the observed
+ * holdout rate; each stop stays valid at α/k because it is a sub-event of a stop on one sequence.
+ * Without a positive baseline only the absolute sequence decides (and there is no `flat`).
  * `horizon` is day `maxDays`, or without it the day every arm reaches n*. τ is `plan.tau` or
- * {@link tauFromPlan} for the first treatment arm at α/k; the relative sequence runs the mSPRT on
- * log(m_T/m_C) with τ/baseline. The always-valid results are two-sided whatever `sides` is (a
- * conservative one-sided reading). With estimated variances the guarantee is asymptotic
- * (Waudby-Smith et al. 2024).
- * Reference: DESIGN.md §3; Johari, Koomen, Pekelis & Walsh (2022); Lindon & Malek (2022);
- * Armitage, McPherson & Rowe (1969). Complexity: O(days · arms) plus one peeking-cost recursion.
+ * {@link tauFromPlan} for the first treatment arm at α/k. The campaign call is suspect > harm (any
+ * arm) > lift (any arm) > flat (every arm) > horizon (any arm) > collecting, and the day's headline
+ * numbers are those of an arm whose own call it is. The always-valid results are two-sided whatever
+ * `sides` is (a conservative one-sided reading). With estimated variances the guarantee is
+ * asymptotic (Waudby-Smith et al. 2024).
+ * Reference: DESIGN.md §3; Johari, Koomen, Pekelis & Walsh (2022); Howard, Ramdas, McAuliffe &
+ * Sekhon (2021); Lindon & Malek (2022); Armitage, McPherson & Rowe (1969). Complexity: O(days · arms) plus one peeking-cost recursion.
  *
  * @param plan - the {@link CampaignPlan}; arms must include `holdout` and at least one treatment
  * @param rows - daily new counts per arm (any order); bad rows are reported as health issues, not thrown
@@ -175,6 +191,7 @@ export function analyzeCampaign(
   const tauRelative = plan.baselineRate !== undefined && plan.baselineRate > 0 ? tau / plan.baselineRate : null;
   const minimumAbsoluteLift =
     plan.baselineRate !== undefined && plan.minimumLift !== undefined && plan.baselineRate * plan.minimumLift > 0 ? plan.baselineRate * plan.minimumLift : null;
+  const minimumRelativeLift = plan.minimumLift !== undefined && plan.minimumLift > 0 && Number.isFinite(plan.minimumLift) ? plan.minimumLift : null;
 
   const issues = checkDailyCounts(rows, { metric: plan.metric, arms: keys });
   const armIndex = new Map(keys.map((key, index) => [key, index]));
@@ -271,6 +288,7 @@ export function analyzeCampaign(
   const days: DayResult[] = new Array(dayCount);
   const counts: number[] = new Array(armCount);
   const calls: Call[] = new Array(perArm.length);
+  const armResults: ArmDayResult[] = new Array(perArm.length);
   let srmP = 1;
   let issuePointer = 0;
   for (let d = 0; d < dayCount; d++) {
@@ -305,8 +323,6 @@ export function analyzeCampaign(
     const healthy = issuePointer === 0 && srmP >= srmSignificanceLevel;
     const dayOfCampaign = d + 1;
     const byArm: Record<string, ArmDayResult> = {};
-    let leading = perArm[0];
-    let leadingResult: ArmDayResult | null = null;
     for (let k = 0; k < perArm.length; k++) {
       const result = perArm[k];
       const p = result.sequence.p[d];
@@ -317,31 +333,31 @@ export function analyzeCampaign(
           : plannedSampleSize !== null &&
             today[result.index].n >= plannedSampleSize[result.arm].treatment &&
             today[holdoutIndex].n >= plannedSampleSize[result.arm].holdout;
-      const call = decideCall({ healthy, p, cs, significanceLevel: armSignificanceLevel, minimumAbsoluteLift, horizonReached });
-      calls[k] = call;
       const relative = result.relativeSequence;
-      const armResult: ArmDayResult = {
-        lift: result.lifts[d],
-        fixed: result.fixed[d],
-        sequential: { p, cs, relativeCs: relative === null ? null : [Math.expm1(relative.lower[d]), Math.expm1(relative.upper[d])] },
-        call,
-      };
-      byArm[result.arm] = armResult;
-      if (leadingResult === null || p < leading.sequence.p[d]) {
-        leading = result;
-        leadingResult = armResult;
-      }
+      // expm1 is increasing, so the running intersection on the log scale is the one on the ratio scale.
+      const relativeCs: Interval | null = relative === null ? null : [Math.expm1(relative.lower[d]), Math.expm1(relative.upper[d])];
+      const call = decideCall({ healthy, p, cs, relativeCs, significanceLevel: armSignificanceLevel, minimumAbsoluteLift, minimumRelativeLift, horizonReached });
+      calls[k] = call;
+      armResults[k] = { lift: result.lifts[d], fixed: result.fixed[d], sequential: { p, cs, relativeCs }, call };
+      byArm[result.arm] = armResults[k];
     }
+    const call = calls.length === 1 ? calls[0] : campaignCall(calls);
+    // The campaign call is shown beside the leading arm's numbers, so that arm is one whose own call it is.
+    let leading = -1;
+    for (let k = 0; k < perArm.length; k++) {
+      if (calls[k] === call && (leading < 0 || perArm[k].sequence.p[d] < perArm[leading].sequence.p[d])) leading = k;
+    }
+    const leadingResult = armResults[leading];
     days[d] = {
       date: dates[d] ?? formatDay(firstDay + d),
       dayNumber: dayOfCampaign,
       arms,
       health: { ok: healthy, issues: todaysIssues, srm: { chiSquare, sequential: sequentialSrm } },
-      leadingArm: leading.arm,
-      lift: leadingResult!.lift,
-      fixed: leadingResult!.fixed,
-      sequential: leadingResult!.sequential,
-      call: calls.length === 1 ? calls[0] : campaignCall(calls),
+      leadingArm: perArm[leading].arm,
+      lift: leadingResult.lift,
+      fixed: leadingResult.fixed,
+      sequential: leadingResult.sequential,
+      call,
       byArm,
     };
   }

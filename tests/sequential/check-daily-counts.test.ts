@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { checkDailyCounts, dayNumber, decideCall, formatDay, lookFractions, type DailyCountRow } from "@/lib/sequential";
+import { checkDailyCounts, dayNumber, formatDay, lookFractions, type DailyCountRow } from "@/lib/sequential";
 
 const row = (date: string, arm: string, n: number, sum: number, sumSq = sum): DailyCountRow => Object.freeze({ date, arm, n, sum, sumSq });
 const options = { metric: "conversion" as const, arms: ["holdout", "treatment"] };
@@ -68,23 +68,5 @@ describe("lookFractions", () => {
     expect(lookFractions([0, 0])).toEqual([]);
     expect(() => lookFractions([5, 3])).toThrow(/lookFractions requires non-decreasing units/);
     expect(() => lookFractions([-1])).toThrow(/lookFractions requires finite units ≥ 0/);
-  });
-});
-
-describe("decideCall (DESIGN.md §3: suspect > harm > lift > flat > horizon > collecting)", () => {
-  const base = { healthy: true, p: 0.5, cs: [-0.01, 0.02] as [number, number], significanceLevel: 0.05, minimumAbsoluteLift: 0.01, horizonReached: false };
-  it("applies the rules in precedence order", () => {
-    expect(decideCall(base)).toBe("collecting");
-    expect(decideCall({ ...base, horizonReached: true })).toBe("horizon");
-    expect(decideCall({ ...base, cs: [-0.01, 0.009] })).toBe("flat");
-    expect(decideCall({ ...base, cs: [-0.01, 0.009], minimumAbsoluteLift: null })).toBe("collecting");
-    expect(decideCall({ ...base, p: 0.01, cs: [0.001, 0.02] })).toBe("lift");
-    expect(decideCall({ ...base, p: 0.01, cs: [-0.02, -0.001] })).toBe("harm");
-    expect(decideCall({ ...base, p: 0.01, cs: [-0.02, -0.001], healthy: false })).toBe("suspect");
-    expect(decideCall({ ...base, p: 0.01, cs: [0.001, 0.005], horizonReached: true })).toBe("lift");
-  });
-  it("throws a RangeError for each guard", () => {
-    expect(() => decideCall({ ...base, p: NaN })).toThrow(/decideCall requires p in \[0, 1\]/);
-    expect(() => decideCall({ ...base, cs: [NaN, 1] })).toThrow(/decideCall requires a confidence sequence without NaN/);
   });
 });
