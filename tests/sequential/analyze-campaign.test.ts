@@ -1,16 +1,20 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import statsmodels from "../reference/fixtures/fixed-ztest.json";
 import {
   alwaysValidSequence,
   analyzeCampaign,
+  confidenceSequenceHalfWidth,
   dayNumber,
   formatDay,
   lookFractions,
   naivePeekingError,
   tauFromPlan,
   twoSampleZTest,
+  type ArmDayResult,
   type CampaignPlan,
   type DailyCountRow,
+  type DayResult,
 } from "@/lib/sequential";
 import { closeRelative } from "./tolerance";
 
@@ -80,6 +84,69 @@ describe("analyzeCampaign — the daily numbers", () => {
   });
 });
 
+describe("analyzeCampaign — the relative sequence is valid at α/k and running-intersected", () => {
+  // Delta-method variance of log(m_T/m_C) from statsmodels 0.13.5
+  // confint_proportions_2indep(xT, nT, xC, nC, method="log", compare="ratio", alpha) (tests/reference/fixed-ztest.py):
+  // its log-interval is centre ± z·sqrt(V) with z = qnorm(1 − alpha/2) (scipy.stats.norm.ppf(0.975) = 1.959963984540054,
+  // norm.ppf(0.95) = 1.6448536269514722, scipy 1.10.1, typed in), so V = ((log(1 + upper) − log(1 + lower)) / (2z))².
+  // The sequence at α/k is then centre ± h(V, τ/baseline, α/k) with h the closed form checked in msprt.test.ts.
+  const QUANTILE: Record<number, number> = { 0.05: 1.959963984540054, 0.1: 1.6448536269514722 };
+  const threeArms: CampaignPlan = {
+    ...plan,
+    tau: 0.02,
+    arms: [
+      { key: "holdout", share: 1 / 3 },
+      { key: "treatment", share: 1 / 3 },
+      { key: "variant-b", share: 1 / 3 },
+    ],
+  };
+  for (const c of statsmodels.proportions.filter((entry) => entry.ciRelative)) {
+    it(`matches statsmodels' ratio variance for ${c.treatment.join("/")} vs ${c.holdout.join("/")}, at α/2 for two arms`, () => {
+      const [xT, nT] = c.treatment;
+      const [xC, nC] = c.holdout;
+      const rows: DailyCountRow[] = [
+        { date: "2026-03-01", arm: "holdout", n: nC, sum: xC, sumSq: xC },
+        { date: "2026-03-01", arm: "treatment", n: nT, sum: xT, sumSq: xT },
+        { date: "2026-03-01", arm: "variant-b", n: nT, sum: xT, sumSq: xT },
+      ];
+      const result = analyzeCampaign(threeArms, rows, { peekingCost: false });
+      expect(result.armSignificanceLevel).toBe(0.025);
+      const logLower = Math.log1p(c.ciRelative![0]);
+      const logUpper = Math.log1p(c.ciRelative![1]);
+      const centre = (logLower + logUpper) / 2;
+      const variance = ((logUpper - logLower) / (2 * QUANTILE[c.alpha])) ** 2;
+      const half = confidenceSequenceHalfWidth(variance, 0.02 / 0.1, 0.025);
+      for (const arm of ["treatment", "variant-b"]) {
+        const relativeCs = result.days[0].byArm[arm].sequential.relativeCs!;
+        expect(closeRelative(relativeCs[0], Math.expm1(centre - half), 1e-9)).toBe(true);
+        expect(closeRelative(relativeCs[1], Math.expm1(centre + half), 1e-9)).toBe(true);
+      }
+    });
+  }
+
+  it("intersects the relative sequences over the days, as alwaysValidSequence does on the log ratio", () => {
+    const rows = series(12, { holdout: (d) => [800 + 10 * d, 80 + (d % 3)], treatment: (d) => [800 + 10 * d, 86 - (d % 4)], "variant-b": (d) => [800 + 10 * d, 79 + (d % 5)] });
+    const result = analyzeCampaign(threeArms, rows, { peekingCost: false });
+    for (const arm of ["treatment", "variant-b"]) {
+      const looks = result.days.map((day) => {
+        const [t, c] = [day.arms[arm], day.arms.holdout];
+        return { estimate: Math.log(t.sum / t.n / (c.sum / c.n)), variance: 1 / t.sum - 1 / t.n + 1 / c.sum - 1 / c.n };
+      });
+      const sequence = alwaysValidSequence(looks, { tau: 0.02 / 0.1, significanceLevel: 0.025 });
+      result.days.forEach((day, i) => {
+        const relativeCs = day.byArm[arm].sequential.relativeCs!;
+        expect(closeRelative(relativeCs[0], Math.expm1(sequence[i].cs[0]), 1e-9)).toBe(true);
+        expect(closeRelative(relativeCs[1], Math.expm1(sequence[i].cs[1]), 1e-9)).toBe(true);
+        if (i > 0) {
+          const before = result.days[i - 1].byArm[arm].sequential.relativeCs!;
+          expect(relativeCs[0]).toBeGreaterThanOrEqual(before[0]);
+          expect(relativeCs[1]).toBeLessThanOrEqual(before[1]);
+        }
+      });
+    }
+  });
+});
+
 describe("analyzeCampaign — the calls", () => {
   it("calls lift on a large true lift", () => {
     const result = analyzeCampaign(plan, series(10, { holdout: () => [2000, 200], treatment: () => [2000, 260] }));
@@ -95,7 +162,27 @@ describe("analyzeCampaign — the calls", () => {
     const result = analyzeCampaign(plan, series(60, { holdout: () => [5000, 500], treatment: () => [5000, 500] }));
     const last = result.days.at(-1)!;
     expect(last.sequential.cs[1]).toBeLessThan(0.1 * 0.1);
+    expect(last.sequential.relativeCs![1]).toBeLessThan(0.1);
     expect(last.call).toBe("flat");
+  });
+  it("does not call flat while the relative sequence holds the minimum lift, the holdout running below the planned baseline", () => {
+    // Planned baseline 4 %, minimum lift +10 %; observed holdout 3.2 %, treatment 3.3 % (+3.1 %).
+    const low: CampaignPlan = { ...plan, baselineRate: 0.04, maxDays: 60 };
+    const result = analyzeCampaign(low, series(30, { holdout: () => [10000, 320], treatment: () => [10000, 330] }));
+    const contradicting = result.days.filter((day) => day.sequential.cs[1] < 0.04 * 0.1 && day.sequential.relativeCs![1] >= 0.1);
+    expect(contradicting.length).toBeGreaterThan(3); // the absolute-only rule called these days flat
+    for (const day of contradicting) expect(day.call).toBe("collecting");
+    const last = result.days.at(-1)!;
+    expect(last.sequential.relativeCs![1]).toBeLessThan(0.1);
+    expect(last.call).toBe("flat");
+  });
+  it("does not call flat while the absolute sequence holds the planned minimum, the holdout running above the planned baseline", () => {
+    // Planned baseline 4 % (absolute minimum 0.004); observed holdout 6 %, treatment 6.2 %.
+    const high: CampaignPlan = { ...plan, baselineRate: 0.04, maxDays: 60 };
+    const result = analyzeCampaign(high, series(30, { holdout: () => [10000, 600], treatment: () => [10000, 620] }));
+    const disagreeing = result.days.filter((day) => day.sequential.relativeCs![1] < 0.1 && day.sequential.cs[1] >= 0.004);
+    expect(disagreeing.length).toBeGreaterThan(0);
+    for (const day of disagreeing) expect(day.call).toBe("collecting");
   });
   it("calls horizon on the planned last day without a call", () => {
     const result = analyzeCampaign({ ...plan, maxDays: 3 }, series(4, { holdout: () => [500, 50], treatment: () => [500, 52] }));
@@ -151,6 +238,100 @@ describe("analyzeCampaign — several treatment arms", () => {
     const test = twoSampleZTest(last.arms["variant-b"], last.arms.holdout, { significanceLevel: 0.025 });
     expect(last.byArm["variant-b"].fixed.ci).toEqual(test.ci.absolute);
     expect(result.plannedSampleSize!.treatment.holdout).toBeLessThan(result.plannedSampleSize!.treatment.treatment);
+  });
+});
+
+/** The stop conditions an arm's printed numbers show (DESIGN.md §3 "Calls"), read off the reported intervals. */
+function shownStops(result: ArmDayResult, armSignificanceLevel: number, planned: { baselineRate: number; minimumLift: number }) {
+  const { p, cs, relativeCs } = result.sequential;
+  const relative = relativeCs!;
+  return {
+    harm: cs[1] < 0 && relative[1] < 0,
+    lift: p < armSignificanceLevel && cs[0] > 0 && relative[0] > 0,
+    flat: relative[1] < planned.minimumLift && cs[1] < planned.baselineRate * planned.minimumLift,
+  };
+}
+
+describe("analyzeCampaign — the call never contradicts the intervals it reports", () => {
+  it("calls a stop exactly when every printed sequence shows it, per arm and for the campaign (property)", () => {
+    const arm = fc.record({ effect: fc.double({ min: -0.35, max: 0.35, noNaN: true }) });
+    const seen = new Set<string>();
+    fc.assert(
+      fc.property(
+        fc.record({
+          baselineRate: fc.double({ min: 0.02, max: 0.2, noNaN: true }),
+          holdoutRate: fc.double({ min: 0.015, max: 0.25, noNaN: true }),
+          minimumLift: fc.double({ min: 0.03, max: 0.3, noNaN: true }),
+          arms: fc.array(arm, { minLength: 1, maxLength: 3 }),
+          unitsPerDay: fc.integer({ min: 200, max: 6000 }),
+          days: fc.integer({ min: 1, max: 25 }),
+          maxDays: fc.option(fc.integer({ min: 1, max: 30 }), { nil: undefined }),
+          seed: fc.integer(),
+        }),
+        (c) => {
+          const keys = c.arms.map((_, i) => (i === 0 ? "treatment" : `variant-${i}`));
+          const share = 1 / (keys.length + 1);
+          const campaignPlan: CampaignPlan = {
+            ...plan,
+            baselineRate: c.baselineRate,
+            minimumLift: c.minimumLift,
+            maxDays: c.maxDays,
+            arms: [{ key: "holdout", share }, ...keys.map((key) => ({ key, share }))],
+          };
+          let state = c.seed >>> 0;
+          const jitter = () => ((state = (Math.imul(state, 1664525) + 1013904223) >>> 0) / 4294967296 - 0.5) * 0.2;
+          const rates: Record<string, number> = { holdout: c.holdoutRate };
+          keys.forEach((key, i) => (rates[key] = Math.min(0.9, c.holdoutRate * (1 + c.arms[i].effect))));
+          const rows: DailyCountRow[] = [];
+          for (let d = 0; d < c.days; d++) {
+            for (const key of ["holdout", ...keys]) {
+              const x = Math.round(c.unitsPerDay * rates[key] * (1 + jitter()));
+              rows.push({ date: formatDay(START + d), arm: key, n: c.unitsPerDay, sum: x, sumSq: x });
+            }
+          }
+          const result = analyzeCampaign(campaignPlan, rows, { peekingCost: false });
+          result.days.forEach((day: DayResult) => {
+            for (const key of keys) {
+              const armResult = day.byArm[key];
+              const stops = shownStops(armResult, result.armSignificanceLevel, c);
+              if (!day.health.ok) {
+                expect(armResult.call).toBe("suspect");
+                continue;
+              }
+              expect(armResult.call === "harm").toBe(stops.harm);
+              expect(armResult.call === "lift").toBe(!stops.harm && stops.lift);
+              expect(armResult.call === "flat").toBe(!stops.harm && !stops.lift && stops.flat);
+              seen.add(armResult.call);
+            }
+            // The headline numbers are those of an arm whose own call is the campaign's call.
+            expect(day.sequential).toBe(day.byArm[day.leadingArm].sequential);
+            expect(day.byArm[day.leadingArm].call).toBe(day.call);
+          });
+        },
+      ),
+      { numRuns: 150 },
+    );
+    expect([...seen].sort()).toEqual(expect.arrayContaining(["collecting", "flat", "harm", "lift"])); // the property met every stop
+  });
+
+  it("shows the arm the campaign call rests on, not merely the smallest p", () => {
+    const threeArms: CampaignPlan = {
+      ...plan,
+      arms: [
+        { key: "holdout", share: 1 / 3 },
+        { key: "treatment", share: 1 / 3 },
+        { key: "variant-b", share: 1 / 3 },
+      ],
+    };
+    // treatment hurts (harm); variant-b lifts more clearly (smaller p): the campaign call is harm, shown with treatment's numbers.
+    const result = analyzeCampaign(threeArms, series(10, { holdout: () => [2000, 260], treatment: () => [2000, 215], "variant-b": () => [2000, 400] }));
+    const last = result.days.at(-1)!;
+    expect(last.byArm["variant-b"].sequential.p).toBeLessThan(last.byArm.treatment.sequential.p);
+    expect(last.byArm.treatment.call).toBe("harm");
+    expect(last.byArm["variant-b"].call).toBe("lift");
+    expect(last.call).toBe("harm");
+    expect(last.leadingArm).toBe("treatment");
+    expect(last.sequential.relativeCs![1]).toBeLessThan(0);
   });
 });
 
