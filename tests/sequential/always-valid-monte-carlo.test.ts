@@ -58,6 +58,59 @@ function simulateAaCampaigns(random: () => number, replications: number): { alwa
   return { alwaysValid: alwaysValid / replications, naive: naive / replications };
 }
 
+/**
+ * Two treatment arms whose true relative lift is exactly the planned minimum (+10 %): the share of
+ * campaigns in which an arm's relative sequence ever misses the true lift, and ever calls it flat.
+ */
+function simulateMinimumLiftCampaigns(random: () => number, replications: number): { missedByArm: number; missedAny: number; flatByArm: number } {
+  const twoArms: CampaignPlan = {
+    ...plan,
+    arms: [
+      { key: "holdout", share: 1 / 3 },
+      { key: "treatment", share: 1 / 3 },
+      { key: "variant-b", share: 1 / 3 },
+    ],
+  };
+  const holdout = binomialSampler(UNITS_PER_DAY, RATE, random);
+  const treated = binomialSampler(UNITS_PER_DAY, RATE * 1.1, random);
+  let missedByArm = 0;
+  let missedAny = 0;
+  let flatByArm = 0;
+  for (let r = 0; r < replications; r++) {
+    const rows: DailyCountRow[] = [];
+    for (let d = 0; d < DAYS; d++) {
+      for (const arm of ["holdout", "treatment", "variant-b"]) {
+        const x = arm === "holdout" ? holdout() : treated();
+        rows.push({ date: formatDay(START + d), arm, n: UNITS_PER_DAY, sum: x, sumSq: x });
+      }
+    }
+    const result = analyzeCampaign({ ...twoArms, maxDays: DAYS + 1 }, rows, { peekingCost: false });
+    const last = result.days.at(-1)!.byArm;
+    // The sequences are running-intersected, so "ever missed" is "missed on the last day".
+    const missed = ["treatment", "variant-b"].map((arm) => !(last[arm].sequential.relativeCs![0] <= 0.1 && 0.1 <= last[arm].sequential.relativeCs![1]));
+    if (missed[0]) missedByArm++;
+    if (missed[0] || missed[1]) missedAny++;
+    if (result.days.some((day) => day.byArm.treatment.call === "flat")) flatByArm++;
+  }
+  return { missedByArm: missedByArm / replications, missedAny: missedAny / replications, flatByArm: flatByArm / replications };
+}
+
+describe("Monte Carlo of the relative sequence at the planned minimum lift, two arms, daily looks (seeded)", () => {
+  it("misses the true relative lift (and calls flat) in at most α/k of the campaigns per arm, α across arms", () => {
+    const replications = 1500;
+    const random = seededRandom(20260302);
+    const rates = simulateMinimumLiftCampaigns(random, replications);
+    expect(random.calls).toBe(replications * DAYS * 3);
+    // Bonferroni α/k = 0.025 per arm; Monte Carlo standard error sqrt(p(1 − p)/R), about 0.0040 at 0.025, R = 1500.
+    const perArm = plan.significanceLevel / 2;
+    const perArmError = Math.sqrt((perArm * (1 - perArm)) / replications);
+    expect(rates.missedByArm).toBeLessThanOrEqual(perArm + 3 * perArmError);
+    expect(rates.flatByArm).toBeLessThanOrEqual(rates.missedByArm); // flat needs the sequence to exclude +10 %
+    const anyError = Math.sqrt((plan.significanceLevel * (1 - plan.significanceLevel)) / replications);
+    expect(rates.missedAny).toBeLessThanOrEqual(plan.significanceLevel + 3 * anyError);
+  });
+});
+
 describe("A/A Monte Carlo with daily looks over four weeks (seeded)", () => {
   it("keeps the always-valid false-positive rate at or below α while naive peeking lands near its exact cost", () => {
     const random = seededRandom(20260301);
