@@ -1,21 +1,24 @@
 import type { CallName } from "@/db/schema";
 
-/** Each call in words: the short phrase, what to do, and the one-line reason. Words first, never colour alone. */
+/**
+ * Each call in words: the short phrase, what to do, and the one-line reason. Words first, never colour alone.
+ * A stop rests on both printed sequences, relative and absolute (lib/sequential/decide-call.ts), and the words say so.
+ */
 export const CALL_WORDS: Record<CallName, { phrase: string; action: string; meaning: string }> = {
   lift: {
     phrase: "Lift proven",
     action: "Stop and ship",
-    meaning: "The always-valid confidence sequence lies above zero: the campaign lifts conversion, and this holds however often the results were looked at.",
+    meaning: "Both always-valid confidence sequences, relative and absolute, lie above zero: the campaign lifts the metric, and this holds however often the results were looked at.",
   },
   harm: {
     phrase: "Harm proven",
     action: "Stop and roll back",
-    meaning: "The always-valid confidence sequence lies below zero: the campaign hurts the metric.",
+    meaning: "Both always-valid confidence sequences, relative and absolute, lie below zero: the campaign hurts the metric.",
   },
   flat: {
     phrase: "Not worth waiting",
     action: "Stop, not worth waiting",
-    meaning: "The confidence sequence excludes the smallest lift worth having: even if there is an effect, it is too small to matter.",
+    meaning: "The relative confidence sequence lies below the planned minimum lift, and the absolute one below that lift on the planned baseline: even if there is an effect, it is too small to matter.",
   },
   horizon: {
     phrase: "Horizon reached",
@@ -30,7 +33,7 @@ export const CALL_WORDS: Record<CallName, { phrase: string; action: string; mean
   collecting: {
     phrase: "Collecting evidence",
     action: "Keep running",
-    meaning: "No boundary is crossed (any more): keep the campaign running and let the evidence build.",
+    meaning: "No call yet: the always-valid confidence sequences do not both cross a boundary. Keep the campaign running and let the evidence build.",
   },
 };
 
