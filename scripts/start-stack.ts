@@ -67,24 +67,42 @@ async function main() {
     buildApp(env);
   }
 
-  const children: ChildProcess[] = [];
+  let stopping = false;
+  let worker: ChildProcess | undefined;
+  let restarts = 0;
+  // The worker is supervised: if it dies (database away, a bad schedule), say so and start it again.
+  const startWorker = () => {
+    worker = spawn("node_modules/.bin/tsx", ["cron/index.ts"], { env, stdio: "inherit" });
+    const startedAt = Date.now();
+    worker.on("exit", (code, signal) => {
+      if (stopping) return;
+      if (Date.now() - startedAt > 60_000) restarts = 0;
+      restarts += 1;
+      const delay = Math.min(30_000, 1000 * 2 ** Math.min(restarts, 5));
+      log(`worker exited (${signal ?? `code ${code}`}); restarting in ${delay / 1000} s — analyses and alerts wait until it is back`);
+      setTimeout(() => !stopping && startWorker(), delay).unref();
+    });
+  };
   if (existsSync("cron/index.ts")) {
-    const worker = spawn("node_modules/.bin/tsx", ["cron/index.ts"], { env, stdio: "inherit" });
-    children.push(worker);
+    startWorker();
     log("worker started");
   }
   const app: RunningApp = await startApp({ port: appPort, env });
-  children.push(app.child);
   log(`Peeksafe is up at ${app.url} (${((Date.now() - started) / 1000).toFixed(1)} s)`);
   if (catcher) log(`local mailbox: ${app.url}/mailbox`);
 
-  let stopping = false;
+  const stopWorker = () =>
+    new Promise<void>((resolve) => {
+      if (!worker || worker.exitCode !== null || worker.signalCode !== null) return resolve();
+      worker.once("exit", () => resolve());
+      worker.kill("SIGTERM");
+      setTimeout(() => worker?.kill("SIGKILL"), 10_000).unref();
+    });
   const stop = async (code: number) => {
     if (stopping) return;
     stopping = true;
     log("stopping");
-    for (const child of children) if (child.exitCode === null) child.kill("SIGTERM");
-    await app.stop();
+    await Promise.all([stopWorker(), app.stop()]);
     await catcher?.stop();
     if (ownDatabase) stopCluster(pgRoot);
     process.exit(code);
