@@ -79,6 +79,26 @@ describe("peeksafe analyze", () => {
     expect(day.arms.treatment.n).toBe(2000);
     expect(output.peekingCost).toBe(naivePeekingError([0.5, 1]));
   });
+  it("prints a call that agrees with both printed sequences when the holdout runs below the planned baseline", () => {
+    // Planned baseline 4 %, minimum lift +10 % (absolute 0.004); observed holdout 3.2 %, treatment 3.3 %.
+    const low = path.join(folder, "low-holdout.csv");
+    const lines = ["date,arm,units,conversions"];
+    for (let d = 1; d <= 30; d++) {
+      const date = `2026-03-${String(d).padStart(2, "0")}`;
+      lines.push(`${date},holdout,10000,320`, `${date},treatment,10000,330`);
+    }
+    writeFileSync(low, lines.join("\n"));
+    const output = json("analyze", "--counts", low, "--baseline", "0.04", "--mde", "0.1", "--power", "0.8", "--max-days", "60");
+    const days = output.days as { call: string; sequential: { cs: [number, number]; relativeCs: [number, number] } }[];
+    const heldMinimum = days.filter((day) => day.sequential.cs[1] < 0.004 && day.sequential.relativeCs[1] >= 0.1);
+    expect(heldMinimum.length).toBeGreaterThan(3); // an absolute-only rule would have called these days flat
+    for (const day of heldMinimum) expect(day.call).toBe("collecting");
+    for (const day of days.filter((entry) => entry.call === "flat")) {
+      expect(day.sequential.relativeCs[1]).toBeLessThan(0.1);
+      expect(day.sequential.cs[1]).toBeLessThan(0.004);
+    }
+    expect(days.at(-1)!.call).toBe("flat");
+  });
   it("accepts a given τ and several treatment arms", () => {
     const three = path.join(folder, "three.csv");
     writeFileSync(three, "date,arm,units,conversions\n2026-03-01,holdout,100,10\n2026-03-01,treatment,100,12\n2026-03-01,variant-b,100,9\n");
