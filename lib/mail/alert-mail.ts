@@ -36,6 +36,7 @@ export function renderAlertMail(snapshot: AlertSnapshot, links: { campaignUrl: s
     { label: "Always-valid confidence sequence, relative", value: formatInterval(snapshot.relativeSequence, formatRelative) },
     { label: `Lift${arm}, absolute`, value: absolute(snapshot.liftAbsolute) },
     { label: "Always-valid confidence sequence, absolute", value: formatInterval(snapshot.sequence, absolute) },
+    { label: "Minimum lift worth having (planned, relative)", value: formatRelative(snapshot.minimumLift) },
     { label: "Always-valid p-value", value: formatPValue(snapshot.sequentialP) },
     { label: "Naive p-value (fixed-horizon test read today)", value: formatPValue(snapshot.fixedP) },
     { label: "Significance level", value: String(snapshot.significanceLevel) },
