@@ -55,7 +55,7 @@ function PercentInput({ control, name, id, error }: { control: Control<FormInput
             }}
             onBlur={field.onBlur}
           />
-          <span className="text-sm text-tremor-content" aria-hidden="true">
+          <span className="text-sm text-tremor-content dark:text-dark-tremor-content" aria-hidden="true">
             %
           </span>
         </div>
@@ -234,7 +234,7 @@ export function CampaignForm() {
               ) : null}
             </>
           ) : (
-            <p className="text-sm text-tremor-content">{preview && !preview.ok ? preview.reason : "Complete the plan to see the sample size."}</p>
+            <p className="text-sm text-tremor-content dark:text-dark-tremor-content">{preview && !preview.ok ? preview.reason : "Complete the plan to see the sample size."}</p>
           )}
         </Card>
         {serverError ? <Notice tone="error" title={serverError} /> : null}

@@ -4,7 +4,6 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button, Card, CardHeader, Notice, Table, Td, Th } from "@/components/ui";
 import { parseCountsCsv, type CountsCsvResult } from "@/lib/counts-csv";
-import { MAX_CSV_BYTES, MAX_INGEST_ROWS } from "@/lib/validation/ingest";
 
 const PREVIEW_ROWS = 50;
 
@@ -49,7 +48,9 @@ function Progress({ label, fraction }: { label: string; fraction: number }) {
  * CSV upload of daily counts: reads and parses the file in the browser (the same parser as the server
  * and the CLI), previews it with every bad line, and writes nothing until confirmed.
  */
-export function CsvUpload({ campaignId, metric }: { campaignId: string; metric: "conversion" | "mean" }) {
+/** The upload limits come from the server (lib/validation/ingest), so the browser bundle carries no validation code. */
+export function CsvUpload({ campaignId, metric, limits }: { campaignId: string; metric: "conversion" | "mean"; limits: { maxBytes: number; maxRows: number } }) {
+  const { maxBytes: MAX_CSV_BYTES, maxRows: MAX_INGEST_ROWS } = limits;
   const router = useRouter();
   const [file, setFile] = useState<{ name: string; text: string } | null>(null);
   const [parsed, setParsed] = useState<CountsCsvResult | null>(null);

@@ -40,18 +40,18 @@ export function RefreshAndSubscribe({ campaignId, canRecompute }: { campaignId: 
 
   const state = subscription.data;
   return (
-    <section aria-label="Analysis refresh and alerts" className="flex flex-wrap items-center gap-x-6 gap-y-2 text-sm text-slate-700">
+    <section aria-label="Analysis refresh and alerts" className="flex flex-wrap items-center gap-x-6 gap-y-2 text-sm text-slate-700 dark:text-slate-200">
       <p>
-        <span className="font-medium text-slate-900">Last refreshed:</span>{" "}
+        <span className="font-medium text-slate-900 dark:text-slate-50">Last refreshed:</span>{" "}
         <time dateTime={refresh.data?.analyzedAt ?? undefined}>{refresh.data ? formatWhen(refresh.data.analyzedAt) : "…"}</time>
-        {refresh.data?.pending ? <span className="ml-2 text-slate-600">(new counts waiting for the next pass)</span> : null}
+        {refresh.data?.pending ? <span className="ml-2 text-slate-600 dark:text-slate-300">(new counts waiting for the next pass)</span> : null}
       </p>
       {canRecompute ? (
         <button
           type="button"
           onClick={() => run("recompute", refresh.recompute)}
           disabled={busy !== null}
-          className="rounded-md border border-slate-300 px-3 py-1.5 font-medium text-slate-800 hover:bg-slate-50 disabled:opacity-60"
+          className="rounded-md border border-slate-300 px-3 py-1.5 font-medium text-slate-800 hover:bg-slate-50 disabled:opacity-60 dark:border-slate-500 dark:text-slate-100 dark:hover:bg-slate-800"
         >
           {busy === "recompute" ? "Recomputing…" : "Recompute now"}
         </button>
@@ -66,13 +66,13 @@ export function RefreshAndSubscribe({ campaignId, canRecompute }: { campaignId: 
             onChange={(event) => run("subscription", event.target.checked ? subscription.subscribe : subscription.unsubscribe)}
           />
           <span>
-            <span className="font-medium text-slate-900">E-mail me when the call changes</span>
-            <span className="block text-xs text-slate-600">{REASONS[state.reason]}</span>
+            <span className="font-medium text-slate-900 dark:text-slate-50">E-mail me when the call changes</span>
+            <span className="block text-xs text-slate-600 dark:text-slate-300">{REASONS[state.reason]}</span>
           </span>
         </label>
       ) : null}
       {problem ? (
-        <p role="alert" className="w-full text-sm text-red-700">
+        <p role="alert" className="w-full text-sm text-red-700 dark:text-red-300">
           {problem}
         </p>
       ) : null}

@@ -6,7 +6,7 @@ import { useMemo, useState } from "react";
 import { Sparkline } from "@/components/charts/sparkline";
 import { Badge, Card, EmptyState, Notice, Select, Td, Th, buttonClasses, controlClasses } from "@/components/ui";
 import type { PortfolioRow } from "@/db/queries/portfolio";
-import { CALLS, CAMPAIGN_STATUSES, type CallName, type CampaignStatus } from "@/db/schema/campaigns";
+import type { CallName, CampaignStatus } from "@/db/schema/campaigns";
 import { CALL_WORDS } from "@/lib/alerts/call-words";
 import { STATUS_LABELS } from "@/lib/campaigns/lifecycle";
 import { usePortfolio } from "@/lib/hooks/use-portfolio";
@@ -27,6 +27,9 @@ const SORTS: { key: SortKey; label: string }[] = [
 
 /** Calls that ask for a decision first. */
 const CALL_URGENCY: Record<CallName, number> = { suspect: 0, harm: 1, lift: 2, flat: 3, horizon: 4, collecting: 5 };
+
+const CALL_CHOICES = Object.keys(CALL_URGENCY) as CallName[];
+const STATUS_CHOICES = Object.keys(STATUS_LABELS) as CampaignStatus[];
 
 function compare(sort: SortKey) {
   const nullsLast = (a: number | null, b: number | null) => (a === null ? (b === null ? 0 : 1) : b === null ? -1 : a - b);
@@ -109,7 +112,7 @@ export function Portfolio({ initial, canCreate, refreshInterval }: { initial: Po
           <span className="mb-1 block font-medium">Status</span>
           <Select value={status} onChange={(event) => setStatus(event.target.value as CampaignStatus | "all")}>
             <option value="all">Every status</option>
-            {CAMPAIGN_STATUSES.map((value) => (
+            {STATUS_CHOICES.map((value) => (
               <option key={value} value={value}>
                 {STATUS_LABELS[value]}
               </option>
@@ -120,7 +123,7 @@ export function Portfolio({ initial, canCreate, refreshInterval }: { initial: Po
           <span className="mb-1 block font-medium">Call</span>
           <Select value={call} onChange={(event) => setCall(event.target.value as CallName | "all")}>
             <option value="all">Every call</option>
-            {CALLS.map((value) => (
+            {CALL_CHOICES.map((value) => (
               <option key={value} value={value}>
                 {CALL_WORDS[value].phrase}
               </option>

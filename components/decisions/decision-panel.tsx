@@ -7,9 +7,9 @@ import { CallBadge } from "@/components/dashboard/call-badge";
 import { formatTimestamp } from "@/components/dashboard/format";
 import { Button, Card, CardHeader, EmptyState, Notice, controlClasses } from "@/components/ui";
 import type { AlertHistoryDto, DecisionDto } from "@/db/queries/decisions";
-import { DECISION_OUTCOMES } from "@/db/schema/decisions";
+import type { DecisionOutcome } from "@/db/schema/decisions";
 import { CALL_WORDS } from "@/lib/alerts/call-words";
-import { DECISION_LABELS, ENDING_OUTCOMES } from "@/lib/validation/decisions";
+import { DECISION_CHOICES, DECISION_LABELS, ENDING_OUTCOMES } from "@/lib/validation/decisions";
 
 export interface DecisionHistory {
   campaignId: string;
@@ -26,7 +26,7 @@ async function fetchHistory(url: string): Promise<DecisionHistory> {
   return (await response.json()) as DecisionHistory;
 }
 
-const OUTCOME_HELP: Record<(typeof DECISION_OUTCOMES)[number], string> = {
+const OUTCOME_HELP: Record<DecisionOutcome, string> = {
   ship: "Roll the campaign out to everyone; the campaign ends.",
   roll_back: "Take the campaign back; the campaign ends.",
   extend: "Keep it running to collect more evidence.",
@@ -37,7 +37,7 @@ const OUTCOME_HELP: Record<(typeof DECISION_OUTCOMES)[number], string> = {
 export function DecisionPanel({ campaignId, canDecide, initial }: { campaignId: string; canDecide: boolean; initial: DecisionHistory }) {
   const router = useRouter();
   const { data, mutate } = useSWR(decisionsKey(campaignId), fetchHistory, { fallbackData: initial, refreshInterval: 60_000 });
-  const [outcome, setOutcome] = useState<(typeof DECISION_OUTCOMES)[number]>("extend");
+  const [outcome, setOutcome] = useState<DecisionOutcome>("extend");
   const [note, setNote] = useState("");
   const [pending, setPending] = useState(false);
   const [problem, setProblem] = useState<{ message: string; fields: Record<string, string> } | null>(null);
@@ -74,12 +74,17 @@ export function DecisionPanel({ campaignId, canDecide, initial }: { campaignId: 
   return (
     <Card aria-labelledby="decision-title">
       <CardHeader id="decision-title" title="Decision" description="The growth lead records the final call with a note; every decision and alert stays listed here." />
+      {recorded ? (
+        <p role="status" className="mb-3 text-sm font-medium text-pine-800 dark:text-pine-300">
+          {recorded}
+        </p>
+      ) : null}
       {canDecide && open ? (
         <form onSubmit={submit} className="mb-6 space-y-3" aria-describedby="decision-help" data-testid="decision-form">
           <fieldset>
             <legend className="mb-2 text-sm font-medium">Decision</legend>
             <div className="grid gap-2 sm:grid-cols-2">
-              {DECISION_OUTCOMES.map((value) => (
+              {DECISION_CHOICES.map((value) => (
                 <label key={value} className="flex cursor-pointer items-start gap-2 rounded-tremor-default border border-tremor-border p-2 text-sm dark:border-dark-tremor-border">
                   <input type="radio" name="outcome" value={value} checked={outcome === value} onChange={() => setOutcome(value)} className="mt-0.5 text-pine-700 focus:ring-pine-500" />
                   <span>
@@ -112,7 +117,6 @@ export function DecisionPanel({ campaignId, canDecide, initial }: { campaignId: 
               {problem.message} {Object.values(problem.fields).join(" ")}
             </Notice>
           ) : null}
-          {recorded ? <p role="status" className="text-sm font-medium text-pine-800 dark:text-pine-300">{recorded}</p> : null}
           <Button type="submit" pending={pending}>
             Record decision
           </Button>

@@ -9,7 +9,7 @@ import type { CountsDay } from "@/components/charts/counts-chart";
 import type { PeekingLook } from "@/components/charts/peeking-cost-chart";
 import { CampaignDashboard } from "@/components/dashboard/campaign-dashboard";
 import { DecisionPanel } from "@/components/decisions/decision-panel";
-import { Badge, Card, CardHeader, Notice, Td, Th } from "@/components/ui";
+import { Badge, Card, CardHeader, EmptyState, Notice, Td, Th } from "@/components/ui";
 import { listAnalysisDays } from "@/db/queries/analysis";
 import { getCampaign } from "@/db/queries/campaigns";
 import { listDailyCounts } from "@/db/queries/daily-counts";
@@ -18,6 +18,7 @@ import { roleAllows } from "@/lib/auth/permissions";
 import { requireRole } from "@/lib/auth/session";
 import { campaignSeries, campaignStatus } from "@/lib/campaigns/campaign-status";
 import { LIFECYCLE_MOVES, STATUS_LABELS } from "@/lib/campaigns/lifecycle";
+import { MAX_CSV_BYTES, MAX_INGEST_ROWS } from "@/lib/validation/ingest";
 
 export const metadata: Metadata = { title: "Campaign · Peeksafe" };
 
@@ -70,7 +71,7 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
       <div className="flex flex-wrap items-start justify-between gap-4">
         <div>
           <h1 className="text-xl font-semibold text-tremor-content-strong dark:text-dark-tremor-content-strong">{campaign.name}</h1>
-          <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-tremor-content">
+          <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-tremor-content dark:text-dark-tremor-content">
             <Badge>{STATUS_LABELS[campaign.status]}</Badge>
             <span>
               {campaign.metric.name} · started {campaign.startDate} · at most {campaign.maxDays} days · <code>{campaign.slug}</code>
@@ -163,12 +164,48 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
         }}
       />
 
+      <Card aria-labelledby="counts-title">
+        <CardHeader id="counts-title" title="Daily counts" description="Each day's new units and outcomes per arm, newest first; a resent day is marked revised." />
+        {countsByDay.size === 0 ? (
+          <EmptyState title="No counts yet" description="The pipeline pushes them through the ingest API, or upload a CSV below." />
+        ) : (
+          <DataTable caption="Daily counts per arm">
+            <thead>
+              <tr>
+                <Th>Day</Th>
+                {campaign.arms.map((arm) => (
+                  <Th key={arm.key} numeric>
+                    {arm.name}: units / {campaign.metric.kind === "conversion" ? "conversions" : `sum${unit}`}
+                  </Th>
+                ))}
+              </tr>
+            </thead>
+            <tbody>
+              {[...countsByDay.values()].reverse().map((day) => (
+                <tr key={day.date}>
+                  <Td>{day.date}</Td>
+                  {campaign.arms.map((arm) => {
+                    const count = day.arms[arm.key];
+                    return (
+                      <Td key={arm.key} numeric>
+                        {count ? `${whole(count.units)} / ${whole(count.sum)}` : "—"}
+                        {count?.revised ? <span className="ml-1 text-xs text-tremor-content dark:text-dark-tremor-content">(revised)</span> : null}
+                      </Td>
+                    );
+                  })}
+                </tr>
+              ))}
+            </tbody>
+          </DataTable>
+        )}
+      </Card>
+
       <div className="grid gap-6 lg:grid-cols-2">
         <DecisionPanel campaignId={campaign.id} canDecide={canDecide} initial={{ campaignId: campaign.id, status: campaign.status, decisions, alerts }} />
         <RefreshAndSubscribe campaignId={campaign.id} canRecompute={canRecompute} />
       </div>
 
-      {canUpload ? <CsvUpload campaignId={campaign.id} metric={campaign.metric.kind} /> : null}
+      {canUpload ? <CsvUpload campaignId={campaign.id} metric={campaign.metric.kind} limits={{ maxBytes: MAX_CSV_BYTES, maxRows: MAX_INGEST_ROWS }} /> : null}
     </div>
   );
 }
