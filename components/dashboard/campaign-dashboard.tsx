@@ -28,6 +28,9 @@ export interface DashboardCampaign {
 }
 
 export interface DashboardHealth {
+  /** The anytime-valid SRM test is below the engine's gate (lib/sequential HEALTH_DEFAULTS), decided on the server. */
+  srmMismatch: boolean;
+  srmGate: number;
   srmChiSquareP: number | null;
   srmSequentialP: number | null;
   revisedDays: { date: string; arm: string; revisedAfterCall: boolean }[];
@@ -158,10 +161,16 @@ export function CampaignDashboard({
           </div>
         </dl>
         <p className="mt-2 text-xs text-tremor-content dark:text-dark-tremor-content">
-          A mismatch is flagged when the always-valid p falls below 0.001 (common practice, no source). The chi-square p is the classic one-look test.
+          A mismatch is flagged when the always-valid p falls below {health.srmGate} (common practice, no source). The chi-square p is the classic one-look test.
         </p>
         <ul className="mt-4 space-y-1 text-sm" data-testid="health-issues">
-          {issues.length === 0 ? <li>No gaps, impossible counts or other problems found.</li> : null}
+          {health.srmMismatch ? (
+            <li>
+              <span className="font-medium">Sample-ratio mismatch</span>: the units per arm differ from the planned shares (always-valid p below {health.srmGate}). Check the
+              assignment and the pipeline before reading any result.
+            </li>
+          ) : null}
+          {issues.length === 0 && !health.srmMismatch ? <li>No gaps, impossible counts or other problems found.</li> : null}
           {issues.map((issue, index) => (
             <li key={index}>
               <span className="font-medium">{issue.rule}</span>

@@ -9,7 +9,7 @@ import { Button, Card, CardHeader, EmptyState, Notice, controlClasses } from "@/
 import type { AlertHistoryDto, DecisionDto } from "@/db/queries/decisions";
 import type { DecisionOutcome } from "@/db/schema/decisions";
 import { CALL_WORDS } from "@/lib/alerts/call-words";
-import { DECISION_CHOICES, DECISION_LABELS, ENDING_OUTCOMES } from "@/lib/validation/decisions";
+import { DECISION_CHOICES, DECISION_LABELS, ENDING_OUTCOMES } from "@/lib/decision-words";
 
 export interface DecisionHistory {
   campaignId: string;

@@ -1,19 +1,7 @@
 import { z } from "zod";
-import type { DecisionOutcome } from "@/db/schema/decisions";
+import { DECISION_CHOICES } from "@/lib/decision-words";
 
-/** Words for each decision, shown beside it everywhere (exhaustive over the schema's outcomes). */
-export const DECISION_LABELS: Record<DecisionOutcome, string> = {
-  ship: "Ship",
-  roll_back: "Roll back",
-  extend: "Extend",
-  stop: "Stop",
-};
-
-/** Every outcome, in the order the form offers them (kept free of the database schema so the browser bundle stays small). */
-export const DECISION_CHOICES = Object.keys(DECISION_LABELS) as [DecisionOutcome, ...DecisionOutcome[]];
-
-/** Outcomes that end the campaign; `extend` keeps it running. */
-export const ENDING_OUTCOMES: readonly DecisionOutcome[] = ["ship", "roll_back", "stop"];
+export { DECISION_CHOICES, DECISION_LABELS, ENDING_OUTCOMES } from "@/lib/decision-words";
 
 /** `POST /api/v1/campaigns/:id/decisions` and the decision form. */
 export const recordDecisionSchema = z

@@ -18,6 +18,7 @@ import { roleAllows } from "@/lib/auth/permissions";
 import { requireRole } from "@/lib/auth/session";
 import { campaignSeries, campaignStatus } from "@/lib/campaigns/campaign-status";
 import { LIFECYCLE_MOVES, STATUS_LABELS } from "@/lib/campaigns/lifecycle";
+import { HEALTH_DEFAULTS } from "@/lib/sequential";
 import { MAX_CSV_BYTES, MAX_INGEST_ROWS } from "@/lib/validation/ingest";
 
 export const metadata: Metadata = { title: "Campaign · Peeksafe" };
@@ -156,6 +157,8 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
         peekingLooks={peekingLooks}
         counts={[...countsByDay.values()]}
         health={{
+          srmMismatch: latest?.srmSequentialP !== null && latest?.srmSequentialP !== undefined && latest.srmSequentialP < HEALTH_DEFAULTS.srmSignificanceLevel,
+          srmGate: HEALTH_DEFAULTS.srmSignificanceLevel,
           srmChiSquareP: latest?.srmP ?? null,
           srmSequentialP: latest?.srmSequentialP ?? null,
           revisedDays,
