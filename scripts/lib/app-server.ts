@@ -3,7 +3,7 @@ import { existsSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
 
 const SOURCE_FOLDERS = ["app", "components", "lib", "db", "public"];
-const SOURCE_FILES = ["next.config.ts", "tailwind.config.ts", "postcss.config.mjs", "proxy.ts", "package-lock.json", "tsconfig.json"];
+const SOURCE_FILES = ["next.config.ts", "instrumentation-client.ts", "tailwind.config.ts", "postcss.config.mjs", "proxy.ts", "package-lock.json", "tsconfig.json"];
 
 function newestMtime(target: string): number {
   if (!existsSync(target)) return 0;
