@@ -17,7 +17,8 @@ function withHeaders(response: Response, headers: Record<string, string>): Respo
 export async function POST(request: Request) {
   let headers: Record<string, string> = { "ratelimit-policy": RATE_LIMIT_POLICY };
   try {
-    if (!request.headers.get("authorization") && !request.headers.get("x-api-key")) {
+    // Only a key is accepted here: any other Authorization (Basic, an empty Bearer) is no credential at all.
+    if (!/^bearer\s+\S/i.test(request.headers.get("authorization") ?? "") && !request.headers.get("x-api-key")) {
       throw new UnauthorizedError("Send the workspace's API key as Authorization: Bearer <key>.");
     }
     const caller = await authorizeRequest(request, { ingest: ["write"] }, { allowKey: true });
