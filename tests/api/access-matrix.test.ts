@@ -65,6 +65,13 @@ const MATRIX: Record<string, Cell[]> = {
       body: () => ({ name: "matrix", organizationId: "<workspace>" }),
       expected: { ...everyone([400, 401, 403, 404]), admin: "pass" },
     },
+    // Members are managed by admins only, through better-auth's workspace endpoints.
+    {
+      method: "POST",
+      path: () => "/api/auth/organization/invite-member",
+      body: () => ({ email: `invited.${randomUUID().slice(0, 8)}@northwind-test.example`, role: "viewer", organizationId: "<workspace>" }),
+      expected: { ...everyone([400, 401, 403, 404]), admin: "pass" },
+    },
   ],
   "cron/[job]": [{ method: "POST", path: () => "/api/cron/recompute", expected: everyone([403, 404]) }],
   "dev/mail": [{ method: "GET", path: () => "/api/dev/mail", expected: everyone("pass") }],
