@@ -15,3 +15,28 @@ declare module "pg-cursor" {
     close(): Promise<void>;
   }
 }
+
+declare module "autocannon" {
+  interface Options {
+    url: string;
+    connections?: number;
+    duration?: number;
+    amount?: number;
+    overallRate?: number;
+    headers?: Record<string, string>;
+  }
+  interface Histogram {
+    average: number;
+    p50: number;
+    p90: number;
+    p99: number;
+    max: number;
+  }
+  interface Result {
+    requests: Histogram;
+    latency: Histogram;
+    non2xx: number;
+    errors: number;
+  }
+  export default function autocannon(options: Options): Promise<Result>;
+}

@@ -1,0 +1,134 @@
+/**
+ * The status API under polling against the app's most trivial route handler, same server, same run,
+ * same load tool (autocannon, in this process).
+ *
+ * `npm run bench:status` starts its own PostgreSQL (in /dev/shm) and the app's production build on
+ * loopback, makes a Northwind Outfitters campaign with 90 days of counts pushed through the ingest
+ * API and analysed by the worker, then
+ *   - floods `GET /api/health` (the trivial handler: one `select 1`) and
+ *     `GET /api/v1/campaigns/:id/status` (pipeline key) with 100 keep-alive connections for 10 s each;
+ *   - offers a fixed 600 requests/s to the status route over 100 keep-alive connections for 10 s
+ *     (autocannon `overallRate`: a fixed-rate load, not a flood) and reads its p99 latency.
+ * Writes bench/results/status-api.json.
+ */
+import { randomUUID } from "node:crypto";
+import autocannon from "autocannon";
+import pg from "pg";
+import { createBenchCampaign, createBenchWorkspace, dayFromToday, machineLine, printTable, processCpuMs, startBenchStack, writeResults } from "./lib/stack";
+
+const CONNECTIONS = 100;
+const DURATION_SECONDS = 10;
+const OFFERED_RATE = 600;
+const TARGETS = { throughputShareOfTrivial: 0.8, p99AtOfferedRateMs: 50 };
+
+interface Load {
+  requestsPerSecond: number;
+  latencyMs: { p50: number; p90: number; p99: number; max: number };
+  non2xx: number;
+  errors: number;
+  appCpuShare: number;
+}
+
+async function load(url: string, headers: Record<string, string>, overallRate?: number): Promise<Load> {
+  const appCpuBefore = processCpuMs(appPid);
+  const started = performance.now();
+  const result = await autocannon({ url, connections: CONNECTIONS, duration: DURATION_SECONDS, headers, ...(overallRate ? { overallRate } : {}) });
+  const wall = performance.now() - started;
+  return {
+    requestsPerSecond: Math.round(result.requests.average),
+    latencyMs: { p50: result.latency.p50, p90: result.latency.p90, p99: result.latency.p99, max: result.latency.max },
+    non2xx: result.non2xx,
+    errors: result.errors,
+    appCpuShare: Math.round(((processCpuMs(appPid) - appCpuBefore) / wall) * 100) / 100,
+  };
+}
+
+let appPid: number | undefined;
+
+async function main(): Promise<void> {
+  const stack = await startBenchStack({ app: true });
+  try {
+    const appUrl = stack.appUrl!;
+    appPid = stack.app!.child.pid;
+    const workspace = await createBenchWorkspace(appUrl, stack.databaseUrl, 1);
+    const campaign = await createBenchCampaign(workspace.admin, 0, 90);
+    const rows = [];
+    for (let day = 0; day < 90; day++) {
+      const date = dayFromToday(-90 + day);
+      rows.push({ campaign: campaign.id, arm: "holdout", date, units: 2_000, conversions: 100 + (day % 5) });
+      rows.push({ campaign: campaign.id, arm: "treatment", date, units: 18_000, conversions: 990 + (day % 7) });
+    }
+    const pushed = await fetch(`${appUrl}/api/v1/ingest`, {
+      method: "POST",
+      headers: { authorization: `Bearer ${workspace.keys[0]}`, "content-type": "application/json", "idempotency-key": randomUUID() },
+      body: JSON.stringify({ rows }),
+    });
+    if (pushed.status !== 200) throw new Error(`ingest answered ${pushed.status}`);
+    // Launch it (a registered campaign is a draft until launched; the bench sets the status directly).
+    const pool = new pg.Pool({ connectionString: stack.databaseUrl, max: 1 });
+    await pool.query("update campaigns set status = 'running' where id = $1", [campaign.id]);
+    await pool.end();
+    Object.assign(process.env, stack.env, { LOG_LEVEL: "silent", RECOMPUTE_HOLD_MS: "0" });
+    const { runRecompute } = await import("../cron/recompute");
+    const { closeDb } = await import("../db");
+    const pass = await runRecompute({ wait: true });
+    await closeDb();
+    if (pass.recomputed !== 1) throw new Error("the worker did not analyse the campaign");
+
+    const headers = { authorization: `Bearer ${workspace.keys[0]}` };
+    const statusUrl = `${appUrl}/api/v1/campaigns/${campaign.id}/status`;
+    const probe = await fetch(statusUrl, { headers });
+    if (probe.status !== 200) throw new Error(`status answered ${probe.status}: ${await probe.text()}`);
+
+    // A short warm-up of both routes, outside the figures.
+    await autocannon({ url: `${appUrl}/api/health`, connections: 10, amount: 500 });
+    await autocannon({ url: statusUrl, connections: 10, amount: 500, headers });
+
+    const trivial = await load(`${appUrl}/api/health`, {});
+    const status = await load(statusUrl, headers);
+    const fixed = await load(statusUrl, headers, OFFERED_RATE);
+    const share = Math.round((status.requestsPerSecond / trivial.requestsPerSecond) * 100) / 100;
+    const machine = machineLine();
+    const results = {
+      bench: "status-api",
+      ranAt: new Date().toISOString(),
+      machine,
+      loadTool: "autocannon 8.0.0 (in the bench process)",
+      connections: CONNECTIONS,
+      durationSeconds: DURATION_SECONDS,
+      targets: TARGETS,
+      trivialRoute: { path: "/api/health", ...trivial },
+      statusRoute: { path: "/api/v1/campaigns/:id/status", ...status, shareOfTrivial: share, meetsTarget: share >= TARGETS.throughputShareOfTrivial },
+      fixedRate: { offeredPerSecond: OFFERED_RATE, ...fixed, meetsTarget: fixed.latencyMs.p99 < TARGETS.p99AtOfferedRateMs && fixed.non2xx === 0 },
+    };
+    console.log(`\nStatus API under polling (autocannon, ${CONNECTIONS} keep-alive connections, ${DURATION_SECONDS} s each)`);
+    console.log(`machine: ${machine.cpus} CPUs, load average ${machine.loadAverage.join(" / ")}, Node ${machine.node}\n`);
+    const row = (name: string, measured: Load, vs: string, target: string, met: boolean | "") => ({
+      load: name,
+      "req/s": measured.requestsPerSecond,
+      "p50 ms": measured.latencyMs.p50,
+      "p99 ms": measured.latencyMs.p99,
+      "max ms": measured.latencyMs.max,
+      non2xx: measured.non2xx,
+      errors: measured.errors,
+      "app cores": measured.appCpuShare,
+      "vs trivial": vs,
+      target,
+      met: met === "" ? "" : met ? "yes" : "NO",
+    });
+    printTable([
+      row("flood /api/health (trivial)", trivial, "1", "", ""),
+      row("flood status", status, String(share), "≥ 0.8", results.statusRoute.meetsTarget),
+      row(`status at ${OFFERED_RATE}/s offered`, fixed, "", "p99 < 50 ms", results.fixedRate.meetsTarget),
+    ]);
+    const file = writeResults("status-api", results);
+    console.log(`\nwrote ${file}`);
+  } finally {
+    await stack.stop();
+  }
+}
+
+main().catch((error) => {
+  console.error(error);
+  process.exitCode = 1;
+});
