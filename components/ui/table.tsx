@@ -5,7 +5,8 @@ import { cn } from "./cn";
 export function Table({ caption, children, className }: { caption: string; children: ReactNode; className?: string }) {
   // relative: the sr-only labels inside are absolutely placed and would otherwise widen the page.
   return (
-    <div className="relative -mx-5 overflow-x-auto px-5">
+    // A scrolling region must be reachable by keyboard and named (axe: scrollable-region-focusable).
+    <div className="relative -mx-5 overflow-x-auto px-5" tabIndex={0} role="region" aria-label={caption}>
       <table className={cn("w-full min-w-[32rem] border-collapse text-sm", className)}>
         <caption className="sr-only">{caption}</caption>
         {children}

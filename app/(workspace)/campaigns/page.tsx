@@ -5,14 +5,14 @@ import { Portfolio } from "@/components/dashboard/portfolio";
 import { buttonClasses } from "@/components/ui";
 import { listPortfolio } from "@/db/queries/portfolio";
 import { roleAllows } from "@/lib/auth/permissions";
-import { requireRole } from "@/lib/auth/session";
+import { requirePageRole } from "@/lib/auth/session";
 
 export const metadata: Metadata = { title: "Campaigns · Peeksafe" };
 
 /** The portfolio: every campaign of the workspace with its call, polled. */
 export default async function CampaignsPage() {
   await connection();
-  const { membership } = await requireRole({ campaign: ["read"] });
+  const { membership } = await requirePageRole({ campaign: ["read"] });
   const campaigns = await listPortfolio(membership.workspaceId);
   const canCreate = roleAllows(membership.role, { campaign: ["create"] });
   return (

@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import { connection } from "next/server";
 import { PlannerForm } from "@/components/dashboard/planner-form";
-import { requireRole } from "@/lib/auth/session";
+import { requirePageRole } from "@/lib/auth/session";
 
 export const metadata: Metadata = { title: "Planner · Peeksafe" };
 
 export default async function PlannerPage() {
   await connection();
-  await requireRole({ campaign: ["read"] });
+  await requirePageRole({ campaign: ["read"] });
   return (
     <div className="space-y-6">
       <div>

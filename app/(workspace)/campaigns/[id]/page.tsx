@@ -15,7 +15,7 @@ import { getCampaign } from "@/db/queries/campaigns";
 import { listDailyCounts } from "@/db/queries/daily-counts";
 import { listAlertHistory, listDecisions } from "@/db/queries/decisions";
 import { roleAllows } from "@/lib/auth/permissions";
-import { requireRole } from "@/lib/auth/session";
+import { requirePageRole } from "@/lib/auth/session";
 import { campaignSeries, campaignStatus } from "@/lib/campaigns/campaign-status";
 import { LIFECYCLE_MOVES, STATUS_LABELS } from "@/lib/campaigns/lifecycle";
 import { HEALTH_DEFAULTS } from "@/lib/sequential";
@@ -28,7 +28,7 @@ const whole = (value: number) => value.toLocaleString("en-US");
 
 export default async function CampaignPage({ params }: { params: Promise<{ id: string }> }) {
   await connection();
-  const { membership } = await requireRole({ campaign: ["read"] });
+  const { membership } = await requirePageRole({ campaign: ["read"] });
   const { id } = await params;
   const campaign = await getCampaign(membership.workspaceId, decodeURIComponent(id));
   if (!campaign) notFound();

@@ -1,11 +1,11 @@
 import type { Metadata } from "next";
 import { CampaignForm } from "@/components/campaigns/campaign-form";
-import { requireRole } from "@/lib/auth/session";
+import { requirePageRole } from "@/lib/auth/session";
 
 export const metadata: Metadata = { title: "New campaign · Peeksafe" };
 
 export default async function NewCampaignPage() {
-  await requireRole({ campaign: ["create"] });
+  await requirePageRole({ campaign: ["create"] });
   return (
     <div className="space-y-6">
       <div>
