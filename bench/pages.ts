@@ -1,0 +1,133 @@
+/**
+ * Page weight and time to a usable chart, in Debian's headless Chromium on loopback.
+ *
+ * `npm run bench:pages` starts its own PostgreSQL (in /dev/shm) and the app's production build,
+ * makes a Northwind Outfitters campaign with 90 days of counts (ingest API, then the worker), signs
+ * in through the API and hands the session cookie to Chromium, then for the portfolio (`/campaigns`)
+ * and the campaign page (`/campaigns/:id`) loads each page cold (new context, empty cache) three
+ * times and reads
+ *   - first-load JavaScript: the encoded (gzip, as `next start` sends it) bytes of every script
+ *     response of the load, from Chromium's own request sizes;
+ *   - time to a usable chart: from navigation start until the first chart line (`.recharts-curve`)
+ *     is drawn, beside the page's `load` event.
+ * Writes bench/results/pages.json.
+ */
+import { randomUUID } from "node:crypto";
+import { chromium } from "playwright-core";
+import pg from "pg";
+import { createBenchCampaign, createBenchWorkspace, dayFromToday, machineLine, printTable, startBenchStack, writeResults } from "./lib/stack";
+
+const RUNS = 3;
+const TARGETS = { firstLoadJavaScriptKiB: 250, usableChartMs: 1_000 };
+const CHART = ".recharts-curve";
+
+function median(values: number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.floor(sorted.length / 2)];
+}
+
+async function main(): Promise<void> {
+  const stack = await startBenchStack({ app: true });
+  const browser = await chromium.launch({ executablePath: "/usr/bin/chromium", headless: true, args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking"] });
+  try {
+    const appUrl = stack.appUrl!;
+    const workspace = await createBenchWorkspace(appUrl, stack.databaseUrl, 1);
+    const campaign = await createBenchCampaign(workspace.admin, 0, 90);
+    const rows = [];
+    for (let day = 0; day < 90; day++) {
+      const date = dayFromToday(-90 + day);
+      rows.push({ campaign: campaign.id, arm: "holdout", date, units: 2_000, conversions: 100 + (day % 5) });
+      rows.push({ campaign: campaign.id, arm: "treatment", date, units: 18_000, conversions: 1_010 + (day % 7) });
+    }
+    const pushed = await fetch(`${appUrl}/api/v1/ingest`, {
+      method: "POST",
+      headers: { authorization: `Bearer ${workspace.keys[0]}`, "content-type": "application/json", "idempotency-key": randomUUID() },
+      body: JSON.stringify({ rows }),
+    });
+    if (pushed.status !== 200) throw new Error(`ingest answered ${pushed.status}`);
+    const pool = new pg.Pool({ connectionString: stack.databaseUrl, max: 1 });
+    await pool.query("update campaigns set status = 'running' where id = $1", [campaign.id]);
+    await pool.end();
+    Object.assign(process.env, stack.env, { LOG_LEVEL: "silent", RECOMPUTE_HOLD_MS: "0" });
+    const { runRecompute } = await import("../cron/recompute");
+    const { closeDb } = await import("../db");
+    await runRecompute({ wait: true });
+    await closeDb();
+
+    const host = new URL(appUrl).hostname;
+    const cookies = [...workspace.admin.cookies].map(([name, value]) => ({ name, value, domain: host, path: "/" }));
+    const pages = [
+      { name: "portfolio", path: "/campaigns" },
+      { name: "campaign", path: `/campaigns/${campaign.id}` },
+    ];
+    const results: Record<string, unknown>[] = [];
+    const table: Record<string, string | number>[] = [];
+    for (const target of pages) {
+      const javaScript: number[] = [];
+      const chart: number[] = [];
+      const loaded: number[] = [];
+      for (let run = 0; run < RUNS; run++) {
+        const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+        await context.addCookies(cookies);
+        const page = await context.newPage();
+        const scripts: Promise<number>[] = [];
+        page.on("requestfinished", (request) => {
+          if (request.resourceType() === "script") scripts.push(request.sizes().then((sizes) => sizes.responseBodySize));
+        });
+        const response = await page.goto(`${appUrl}${target.path}`, { waitUntil: "load" });
+        if (!response || response.status() !== 200) throw new Error(`${target.path} answered ${response?.status()}`);
+        let chartMs = Number.NaN;
+        try {
+          await page.waitForSelector(CHART, { timeout: 15_000 });
+          chartMs = await page.evaluate(() => performance.now());
+        } catch {
+          // no chart on this page: reported as such
+        }
+        const loadMs = await page.evaluate(() => {
+          const [navigation] = performance.getEntriesByType("navigation") as PerformanceNavigationTiming[];
+          return navigation.loadEventEnd;
+        });
+        await page.waitForLoadState("networkidle").catch(() => undefined);
+        javaScript.push((await Promise.all(scripts)).reduce((sum, bytes) => sum + bytes, 0));
+        chart.push(chartMs);
+        loaded.push(loadMs);
+        await context.close();
+      }
+      const kib = Math.round((median(javaScript) / 1024) * 10) / 10;
+      const chartMedian = chart.some(Number.isNaN) ? null : Math.round(median(chart));
+      const entry = {
+        page: target.name,
+        path: target.name === "campaign" ? "/campaigns/:id" : target.path,
+        firstLoadJavaScriptKiB: kib,
+        usableChartMs: chartMedian,
+        loadEventMs: Math.round(median(loaded)),
+        runs: { javaScriptBytes: javaScript, chartMs: chart.map((value) => (Number.isNaN(value) ? null : Math.round(value))), loadMs: loaded.map(Math.round) },
+        meetsJavaScriptTarget: kib < TARGETS.firstLoadJavaScriptKiB,
+        meetsChartTarget: chartMedian === null ? null : chartMedian < TARGETS.usableChartMs,
+      };
+      results.push(entry);
+      table.push({
+        page: target.name,
+        "JS gzip KiB": kib,
+        "< 250": entry.meetsJavaScriptTarget ? "yes" : "NO",
+        "chart ms": chartMedian ?? "no chart",
+        "< 1000": entry.meetsChartTarget === null ? "" : entry.meetsChartTarget ? "yes" : "NO",
+        "load ms": entry.loadEventMs,
+      });
+    }
+    const machine = machineLine();
+    console.log(`\nPages in headless Chromium on loopback (cold context, median of ${RUNS})`);
+    console.log(`machine: ${machine.cpus} CPUs, load average ${machine.loadAverage.join(" / ")}, Node ${machine.node}\n`);
+    printTable(table);
+    const file = writeResults("pages", { bench: "pages", ranAt: new Date().toISOString(), machine, targets: TARGETS, results });
+    console.log(`\nwrote ${file}`);
+  } finally {
+    await browser.close();
+    await stack.stop();
+  }
+}
+
+main().catch((error) => {
+  console.error(error);
+  process.exitCode = 1;
+});
