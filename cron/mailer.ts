@@ -54,17 +54,19 @@ export function unsubscribeUrl(campaignId: string, userId: string, appUrl = getE
  * Message-ID, records attempts and the last error, and retries failures with backoff. Safe to run
  * twice; under the job's advisory lock. `now` decides which retries are due.
  */
-export async function runMailer(options: { now?: Date; wait?: boolean; logger?: Logger } = {}): Promise<MailerSummary> {
+export async function runMailer(
+  options: { now?: Date; wait?: boolean; logger?: Logger; workspaceIds?: string[] } = {},
+): Promise<MailerSummary> {
   const logger = options.logger ?? createLogger("mailer");
   const wait = options.wait ?? getWorkerEnv().WORKER_WAIT_FOR_LOCK === "true";
-  const locked = await withJobLock("mailer", logger, { wait }, () => drainOutbox(options.now ?? null, logger));
+  const locked = await withJobLock("mailer", logger, { wait }, () => drainOutbox(options.now ?? null, logger, options.workspaceIds));
   return locked.ran ? locked.result : { ran: false, sent: 0, failed: 0, closedWithoutMail: 0 };
 }
 
-async function drainOutbox(at: Date | null, logger: Logger): Promise<MailerSummary> {
+async function drainOutbox(at: Date | null, logger: Logger, workspaceIds?: string[]): Promise<MailerSummary> {
   let closedWithoutMail = 0;
   const touched = new Set<string>();
-  for (const alert of await listUnsentAlerts()) {
+  for (const alert of await listUnsentAlerts(200, workspaceIds)) {
     const rule = await getAlertRule(alert.workspaceId);
     if (!rule.calls.includes(alert.kind)) {
       await closeAlertWithoutMail(alert.id, `the workspace's alert rules do not mail "${alert.kind}"`);
@@ -79,7 +81,7 @@ async function drainOutbox(at: Date | null, logger: Logger): Promise<MailerSumma
   let failed = 0;
   // Read the clock after expanding, so the deliveries just created are due (same clock as their nextAttemptAt).
   const now = at ?? new Date();
-  for (const delivery of await listDueDeliveries(now)) {
+  for (const delivery of await listDueDeliveries(now, 500, workspaceIds)) {
     touched.add(delivery.alertId);
     try {
       await deliver(delivery);

@@ -26,13 +26,13 @@ export interface PendingAlert {
   kind: CallName;
 }
 
-/** Alerts not yet fully delivered, oldest first. */
-export async function listUnsentAlerts(limit = 200): Promise<PendingAlert[]> {
+/** Alerts not yet fully delivered, oldest first; `workspaceIds` narrows them to those workspaces. */
+export async function listUnsentAlerts(limit = 200, workspaceIds?: string[]): Promise<PendingAlert[]> {
   return getDb()
     .select({ id: alerts.id, campaignId: alerts.campaignId, workspaceId: campaigns.workspaceId, createdBy: campaigns.createdBy, kind: alerts.kind })
     .from(alerts)
     .innerJoin(campaigns, eq(campaigns.id, alerts.campaignId))
-    .where(isNull(alerts.sentAt))
+    .where(and(isNull(alerts.sentAt), workspaceIds ? inArray(campaigns.workspaceId, workspaceIds) : undefined))
     .orderBy(asc(alerts.createdAt))
     .limit(limit);
 }
@@ -96,8 +96,8 @@ export interface DueDelivery {
   snapshot: AlertSnapshot;
 }
 
-/** Unsent deliveries whose next attempt is due at `now`, oldest alert first. */
-export async function listDueDeliveries(now: Date, limit = 500): Promise<DueDelivery[]> {
+/** Unsent deliveries whose next attempt is due at `now`, oldest alert first; `workspaceIds` narrows them. */
+export async function listDueDeliveries(now: Date, limit = 500, workspaceIds?: string[]): Promise<DueDelivery[]> {
   const rows = await getDb()
     .select({
       id: alertDeliveries.id,
@@ -111,7 +111,14 @@ export async function listDueDeliveries(now: Date, limit = 500): Promise<DueDeli
     })
     .from(alertDeliveries)
     .innerJoin(alerts, eq(alerts.id, alertDeliveries.alertId))
-    .where(and(isNull(alertDeliveries.sentAt), lte(alertDeliveries.nextAttemptAt, now)))
+    .innerJoin(campaigns, eq(campaigns.id, alerts.campaignId))
+    .where(
+      and(
+        isNull(alertDeliveries.sentAt),
+        lte(alertDeliveries.nextAttemptAt, now),
+        workspaceIds ? inArray(campaigns.workspaceId, workspaceIds) : undefined,
+      ),
+    )
     .orderBy(asc(alerts.createdAt), asc(alertDeliveries.email))
     .limit(limit);
   return rows.map((row) => ({ ...row, snapshot: row.snapshot as AlertSnapshot }));

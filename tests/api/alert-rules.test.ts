@@ -123,7 +123,7 @@ describe("the saved rules decide who is mailed", () => {
     await putCounts(excluded, conversionCounts(6, lifting));
     expect((await recomputeCampaign(excluded.id)).call).toBe("lift");
     const [excludedAlert] = await listCampaignAlerts(excluded.id);
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [team.id] });
     expect((await listMail()).filter((mail) => mail.headers["x-peeksafe-alert"] === excludedAlert.id)).toEqual([]);
     expect(await listDeliveries([excludedAlert.id])).toEqual([]);
     const [closed] = await listCampaignAlerts(excluded.id);
@@ -136,7 +136,7 @@ describe("the saved rules decide who is mailed", () => {
     await putCounts(included, conversionCounts(6, lifting));
     expect((await recomputeCampaign(included.id)).call).toBe("lift");
     const [includedAlert] = await listCampaignAlerts(included.id);
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [team.id] });
     const mailed = (await listMail()).filter((mail) => mail.headers["x-peeksafe-alert"] === includedAlert.id).flatMap((mail) => mail.envelopeTo);
     expect(mailed.sort()).toEqual(
       [team.lead.email, team.marketer.email, "growth-alerts@northwind-outfitters.example", "ops@northwind-outfitters.example"].map((email) => email.toLowerCase()).sort(),

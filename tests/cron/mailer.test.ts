@@ -54,13 +54,13 @@ describe("alerts by e-mail", () => {
     const { workspace, campaign } = await campaignWithFollowers();
     await putCounts(campaign, conversionCounts(2, lifting));
     expect((await recomputeCampaign(campaign.id)).call).toBe("collecting");
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     for (const email of recipientsOf(workspace)) expect(mailTo(email)).toHaveLength(0);
 
     await putCounts(campaign, conversionCounts(3, lifting, 2));
     const crossed = await recomputeCampaign(campaign.id);
     expect(crossed).toMatchObject({ call: "lift", previousCall: "collecting", alertId: expect.any(String) });
-    const mailer = await runMailer({ wait: true });
+    const mailer = await runMailer({ wait: true, workspaceIds: [workspace.id] });
     expect(mailer.ran).toBe(true);
 
     const last = (await listAnalysisDays(campaign.id)).at(-1)!;
@@ -85,16 +85,16 @@ describe("alerts by e-mail", () => {
     const [sentAlert] = await getDb().select().from(alerts).where(eq(alerts.id, crossed.alertId!));
     expect(sentAlert.sentAt).not.toBeNull();
 
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     expect((await recomputeCampaign(campaign.id)).alertId).toBeNull();
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     for (const email of recipientsOf(workspace)) expect(mailTo(email)).toHaveLength(1);
 
     // A resend of every day with no lift moves the call back: the next alert goes out.
     await putCounts(campaign, conversionCounts(5, quiet));
     const corrected = await recomputeCampaign(campaign.id);
     expect(corrected).toMatchObject({ call: "collecting", previousCall: "lift", alertId: expect.any(String) });
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     for (const email of recipientsOf(workspace)) {
       const mails = mailTo(email);
       expect(mails).toHaveLength(2);
@@ -110,10 +110,10 @@ describe("alerts by e-mail", () => {
       await putCounts(campaign, conversionCounts(5, lifting));
       const crossed = await recomputeCampaign(campaign.id);
       expect(crossed.alertId).not.toBeNull();
-      const first = await runMailer({ wait: true });
+      const first = await runMailer({ wait: true, workspaceIds: [workspace.id] });
       expect(first.failed).toBeGreaterThanOrEqual(4);
       const later = new Date(Date.now() + 2 * 60 * 60 * 1000);
-      await runMailer({ wait: true, now: later });
+      await runMailer({ wait: true, workspaceIds: [workspace.id], now: later });
       const deliveries = await listDeliveries([crossed.alertId!]);
       expect(deliveries).toHaveLength(4);
       for (const delivery of deliveries) {
@@ -128,8 +128,8 @@ describe("alerts by e-mail", () => {
       catcher = await startMailCatcher(ports);
       resetTransport();
     }
-    await runMailer({ wait: true, now: new Date(Date.now() + 6 * 60 * 60 * 1000) });
-    await runMailer({ wait: true, now: new Date(Date.now() + 12 * 60 * 60 * 1000) });
+    await runMailer({ wait: true, workspaceIds: [workspace.id], now: new Date(Date.now() + 6 * 60 * 60 * 1000) });
+    await runMailer({ wait: true, workspaceIds: [workspace.id], now: new Date(Date.now() + 12 * 60 * 60 * 1000) });
     for (const email of recipientsOf(workspace)) expect(mailTo(email)).toHaveLength(1);
     const alertRows = await listCampaignAlerts(campaign.id);
     const deliveries = await listDeliveries(alertRows.map((a) => a.id));
@@ -140,7 +140,7 @@ describe("alerts by e-mail", () => {
     const { workspace, campaign } = await campaignWithFollowers();
     await putCounts(campaign, conversionCounts(5, lifting));
     await recomputeCampaign(campaign.id);
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     const [mail] = mailTo(workspace.lead.email);
     const link = mail.text.match(/https?:\/\/\S+\/unsubscribe\?token=[A-Za-z0-9_.-]+/)![0];
     const token = new URL(link).searchParams.get("token")!;
@@ -166,7 +166,7 @@ describe("alerts by e-mail", () => {
     await putCounts(campaign, conversionCounts(5, quiet));
     const next = await recomputeCampaign(campaign.id);
     expect(next.alertId).not.toBeNull();
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     expect(mailTo(workspace.lead.email)).toHaveLength(1);
     expect(mailTo(workspace.admin.email)).toHaveLength(2);
     const deliveries = await listDeliveries([next.alertId!]);

@@ -99,7 +99,7 @@ describe.sequential("the growth team's journeys in a real browser", () => {
   });
 
   test("the stakeholder's alert e-mail arrives in the catcher and its link opens the right page", { timeout: 90_000 }, async () => {
-    await runMailer({ wait: true });
+    await runMailer({ wait: true, workspaceIds: [workspace.id] });
     const mail = await waitForMail(workspace.viewer.email, (message) => message.text.includes(`/campaigns/${campaign.id}`), 20_000);
     expect(mail.subject).toMatch(/Lift proven/);
     const link = linkIn(mail, `${appUrl}/campaigns/`);
