@@ -10,16 +10,9 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
+import { timestamps } from "./columns";
 import { organizations, users } from "./auth";
 import { CALLS, campaigns } from "./campaigns";
-
-const timestamps = {
-  createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
-  updatedAt: timestamp("updated_at", { withTimezone: true })
-    .defaultNow()
-    .$onUpdate(() => new Date())
-    .notNull(),
-};
 
 /** The outbox: one row per change of a campaign's call, unique per transition so a re-run never queues it twice. */
 export const alerts = pgTable(

@@ -10,15 +10,8 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
+import { timestamps } from "./columns";
 import { CALLS, campaigns } from "./campaigns";
-
-const timestamps = {
-  createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
-  updatedAt: timestamp("updated_at", { withTimezone: true })
-    .defaultNow()
-    .$onUpdate(() => new Date())
-    .notNull(),
-};
 
 /**
  * One row per campaign and day: every statistic of lib/sequential's campaign analysis for the

@@ -14,6 +14,7 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
+import { timestamps } from "./columns";
 import { organizations, users } from "./auth";
 
 export const CAMPAIGN_STATUSES = ["draft", "running", "paused", "ended", "archived"] as const;
@@ -21,14 +22,6 @@ export type CampaignStatus = (typeof CAMPAIGN_STATUSES)[number];
 export const METRIC_KINDS = ["conversion", "mean"] as const;
 export const CALLS = ["collecting", "lift", "harm", "flat", "horizon", "suspect"] as const;
 export type CallName = (typeof CALLS)[number];
-
-const timestamps = {
-  createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
-  updatedAt: timestamp("updated_at", { withTimezone: true })
-    .defaultNow()
-    .$onUpdate(() => new Date())
-    .notNull(),
-};
 
 export const campaigns = pgTable(
   "campaigns",

@@ -12,19 +12,12 @@ import {
   uniqueIndex,
   uuid,
 } from "drizzle-orm/pg-core";
+import { timestamps } from "./columns";
 import { apikeys, organizations, users } from "./auth";
 import { arms, campaigns } from "./campaigns";
 
 export const COUNT_SOURCES = ["api", "csv", "manual", "seed"] as const;
 export type CountSource = (typeof COUNT_SOURCES)[number];
-
-const timestamps = {
-  createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
-  updatedAt: timestamp("updated_at", { withTimezone: true })
-    .defaultNow()
-    .$onUpdate(() => new Date())
-    .notNull(),
-};
 
 export const ingestBatches = pgTable(
   "ingest_batches",

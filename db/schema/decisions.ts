@@ -1,14 +1,7 @@
-import { index, jsonb, pgTable, text, timestamp, uuid } from "drizzle-orm/pg-core";
+import { index, jsonb, pgTable, text, uuid } from "drizzle-orm/pg-core";
+import { timestamps } from "./columns";
 import { apikeys, organizations, users } from "./auth";
 import { CALLS, campaigns } from "./campaigns";
-
-const timestamps = {
-  createdAt: timestamp("created_at", { withTimezone: true }).defaultNow().notNull(),
-  updatedAt: timestamp("updated_at", { withTimezone: true })
-    .defaultNow()
-    .$onUpdate(() => new Date())
-    .notNull(),
-};
 
 export const DECISION_OUTCOMES = ["ship", "roll_back", "extend", "stop"] as const;
 export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
