@@ -30,8 +30,10 @@ export function verifyUnsubscribeToken(token: unknown, secret = getEnv().BETTER_
   const parts = token.split(".");
   if (parts.length !== 2) return null;
   const [body, signature] = parts;
-  const given = Buffer.from(signature, "base64url");
-  const expected = sign(body, secret);
+  // Compare the canonical text: base64url decoding ignores a last character's spare bits, so a
+  // byte comparison would accept other spellings of the same signature.
+  const given = Buffer.from(signature, "utf8");
+  const expected = Buffer.from(sign(body, secret).toString("base64url"), "utf8");
   if (given.length !== expected.length || !timingSafeEqual(given, expected)) return null;
   let decoded: unknown;
   try {

@@ -34,7 +34,7 @@ function MessageView({ message }: { message: MailboxMessage }) {
       ) : null}
       <section aria-label="Plain-text version">
         <h3 className="mb-2 text-sm font-semibold">As plain text</h3>
-        <pre className="max-h-96 overflow-auto whitespace-pre-wrap break-words rounded bg-tremor-background-subtle p-3 font-mono text-xs dark:bg-dark-tremor-background-subtle">
+        <pre tabIndex={0} aria-label="Plain text of the message" className="max-h-96 overflow-auto whitespace-pre-wrap break-words rounded bg-tremor-background-subtle p-3 font-mono text-xs dark:bg-dark-tremor-background-subtle">
           {message.text}
         </pre>
       </section>

@@ -9,7 +9,7 @@ export const metadata: Metadata = { title: "API · Peeksafe" };
 
 function Code({ children }: { children: string }) {
   return (
-    <pre className="overflow-x-auto rounded-tremor-default bg-slate-900 p-4 text-xs leading-relaxed text-slate-100">
+    <pre tabIndex={0} className="overflow-x-auto rounded-tremor-default bg-slate-900 p-4 text-xs leading-relaxed text-slate-100">
       <code>{children}</code>
     </pre>
   );
