@@ -11,41 +11,39 @@ export interface Membership {
   role: string;
 }
 
+const membershipColumns = {
+  memberId: members.id,
+  workspaceId: organizations.id,
+  workspaceName: organizations.name,
+  workspaceSlug: organizations.slug,
+  timeZone: organizations.timeZone,
+  role: members.role,
+};
+
+function toMembership(row: Omit<Membership, "timeZone"> & { timeZone: string | null }): Membership {
+  return { ...row, timeZone: row.timeZone ?? "UTC" };
+}
+
 /** The user's membership of one workspace, or null when the user is not a member. */
 export async function getMembership(workspaceId: string, userId: string): Promise<Membership | null> {
   const rows = await getDb()
-    .select({
-      memberId: members.id,
-      workspaceId: organizations.id,
-      workspaceName: organizations.name,
-      workspaceSlug: organizations.slug,
-      timeZone: organizations.timeZone,
-      role: members.role,
-    })
+    .select(membershipColumns)
     .from(members)
     .innerJoin(organizations, eq(organizations.id, members.organizationId))
     .where(and(eq(members.organizationId, workspaceId), eq(members.userId, userId)))
     .limit(1);
-  const row = rows[0];
-  return row ? { ...row, timeZone: row.timeZone ?? "UTC" } : null;
+  return rows[0] ? toMembership(rows[0]) : null;
 }
 
 /** Every workspace the user belongs to, oldest membership first. */
 export async function listMemberships(userId: string): Promise<Membership[]> {
   const rows = await getDb()
-    .select({
-      memberId: members.id,
-      workspaceId: organizations.id,
-      workspaceName: organizations.name,
-      workspaceSlug: organizations.slug,
-      timeZone: organizations.timeZone,
-      role: members.role,
-    })
+    .select(membershipColumns)
     .from(members)
     .innerJoin(organizations, eq(organizations.id, members.organizationId))
     .where(eq(members.userId, userId))
     .orderBy(asc(members.createdAt));
-  return rows.map((row) => ({ ...row, timeZone: row.timeZone ?? "UTC" }));
+  return rows.map(toMembership);
 }
 
 export interface MemberRow {
