@@ -1,12 +1,12 @@
 import { randomBytes } from "node:crypto";
-import { chmodSync, mkdtempSync, rmSync } from "node:fs";
-import os from "node:os";
+import { rmSync } from "node:fs";
 import path from "node:path";
 import type { TestProject } from "vitest/node";
 import { buildApp, buildIsStale, startApp } from "../../scripts/lib/app-server";
 import { startMailCatcher } from "../../scripts/lib/mail-catcher";
 import { migrateDatabase } from "../../scripts/lib/migrate";
 import { freePort, startCluster } from "../../scripts/lib/postgres-cluster";
+import { createScratchFolder, reapScratchFolders } from "../../scripts/lib/scratch-folders";
 
 declare module "vitest" {
   export interface ProvidedContext {
@@ -23,9 +23,8 @@ declare module "vitest" {
  * production build of the app, all on loopback ports picked at random; torn down at the end.
  */
 export default async function setup(project: TestProject) {
-  const shm = os.platform() === "linux" ? "/dev/shm" : os.tmpdir();
-  const root = mkdtempSync(path.join(shm, "peeksafe-test-"));
-  chmodSync(root, 0o755);
+  for (const folder of reapScratchFolders("peeksafe-test-")) console.error(`[tests] removed ${folder}, left behind by a killed run`);
+  const root = createScratchFolder("peeksafe-test-");
   const cluster = await startCluster({ root: path.join(root, "pg"), port: await freePort(), database: "peeksafe", fast: true });
   await migrateDatabase(cluster.url);
 
