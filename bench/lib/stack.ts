@@ -1,78 +1,25 @@
-import { randomBytes, randomUUID } from "node:crypto";
-import { chmodSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { randomUUID } from "node:crypto";
+import { mkdirSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import pg from "pg";
-import { buildApp, startApp, type RunningApp } from "../../scripts/lib/app-server";
-import { startMailCatcher } from "../../scripts/lib/mail-catcher";
-import { migrateDatabase } from "../../scripts/lib/migrate";
-import { freePort, startCluster, type RunningCluster } from "../../scripts/lib/postgres-cluster";
+import { startThrowawayStack, type ThrowawayStack } from "../../scripts/lib/stack";
 
 /** The build folder of the benches: apart from every other engineer's and the tests'. */
 export const BENCH_DIST_DIR = process.env.NEXT_DIST_DIR ?? ".next-bench";
 
-export interface BenchStack {
-  databaseUrl: string;
-  appUrl?: string;
-  app?: RunningApp;
-  cluster: RunningCluster;
-  env: NodeJS.ProcessEnv;
-  stop(): Promise<void>;
-}
+export type BenchStack = ThrowawayStack;
 
 function log(message: string): void {
   process.stderr.write(`[bench] ${message}\n`);
 }
 
 /**
- * A throwaway world for one bench run: PostgreSQL in /dev/shm (no fsync, as in the tests), migrated,
- * the mail catcher, and — with `app` — the production build of the app on a loopback port. The build
- * is made once into `.next-bench` when it is missing (or with `--rebuild`), not whenever a source is
- * newer: other engineers edit the tree all the time.
+ * A throwaway world for one bench run (see `startThrowawayStack`), built into `.next-bench` when
+ * that folder has no build yet (or with `--rebuild`).
  */
 export async function startBenchStack(options: { app: boolean }): Promise<BenchStack> {
-  const shm = os.platform() === "linux" ? "/dev/shm" : os.tmpdir();
-  const root = mkdtempSync(path.join(shm, "peeksafe-bench-"));
-  chmodSync(root, 0o755);
-  const cluster = await startCluster({ root: path.join(root, "pg"), port: await freePort(), database: "peeksafe", fast: true });
-  await migrateDatabase(cluster.url);
-  const mail = await startMailCatcher({ smtpPort: await freePort(), httpPort: await freePort() });
-  const appPort = await freePort();
-  const env: NodeJS.ProcessEnv = {
-    ...process.env,
-    NEXT_DIST_DIR: BENCH_DIST_DIR,
-    DATABASE_URL: cluster.url,
-    BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
-    APP_URL: `http://127.0.0.1:${appPort}`,
-    SMTP_URL: `smtp://127.0.0.1:${mail.smtpPort}`,
-    MAIL_CATCHER_URL: `http://127.0.0.1:${mail.httpPort}`,
-    AUTH_RATE_LIMIT: "off",
-    LOG_LEVEL: "warn",
-  };
-  process.env.DATABASE_URL = cluster.url;
-  let app: RunningApp | undefined;
-  if (options.app) {
-    const built = existsSync(path.resolve(BENCH_DIST_DIR, "BUILD_ID"));
-    if (!built || process.argv.includes("--rebuild")) {
-      log(`building the app into ${BENCH_DIST_DIR}`);
-      buildApp(env);
-    }
-    app = await startApp({ port: appPort, env, quiet: true });
-    log(`app on ${app.url} (pid ${app.child.pid}), PostgreSQL on 127.0.0.1:${cluster.port}`);
-  }
-  return {
-    databaseUrl: cluster.url,
-    appUrl: app?.url,
-    app,
-    cluster,
-    env,
-    stop: async () => {
-      await app?.stop();
-      await mail.stop();
-      cluster.stop();
-      rmSync(root, { recursive: true, force: true });
-    },
-  };
+  return startThrowawayStack({ app: options.app, distDir: BENCH_DIST_DIR, prefix: "peeksafe-bench-", rebuild: process.argv.includes("--rebuild"), log });
 }
 
 /** A cookie-keeping client for the app, sending our Origin like a browser. */

@@ -1,0 +1,86 @@
+import { randomBytes } from "node:crypto";
+import { existsSync, rmSync } from "node:fs";
+import path from "node:path";
+import { buildApp, startApp, type RunningApp } from "./app-server";
+import { startMailCatcher, type MailCatcher } from "./mail-catcher";
+import { migrateDatabase } from "./migrate";
+import { freePort, startCluster, type RunningCluster } from "./postgres-cluster";
+import { createScratchFolder, reapScratchFolders } from "./scratch-folders";
+
+export interface ThrowawayStackOptions {
+  /** Start the production build of the app too (else only PostgreSQL and the mail catcher). */
+  app: boolean;
+  /** No fsync and no full-page writes (default true): the data is thrown away anyway. */
+  fast?: boolean;
+  /** The Next build folder the app is built into and served from. */
+  distDir: string;
+  /** Prefix of the scratch folder in /dev/shm, e.g. `peeksafe-bench-`. */
+  prefix: string;
+  /** Build even when `distDir` already holds a build. */
+  rebuild?: boolean;
+  log?: (message: string) => void;
+}
+
+export interface ThrowawayStack {
+  databaseUrl: string;
+  appUrl?: string;
+  app?: RunningApp;
+  cluster: RunningCluster;
+  mail: MailCatcher;
+  env: NodeJS.ProcessEnv;
+  /** Stops what was started and removes the scratch folder; safe to call twice. */
+  stop(): Promise<void>;
+}
+
+/**
+ * A throwaway world for one long run (bench or soak): PostgreSQL in /dev/shm, migrated, the mail
+ * catcher and, with `app`, the production app on a loopback port. The build is made only when
+ * `distDir` has none (or with `rebuild`): other engineers edit the tree all the time.
+ */
+export async function startThrowawayStack(options: ThrowawayStackOptions): Promise<ThrowawayStack> {
+  const log = options.log ?? (() => {});
+  for (const folder of reapScratchFolders(options.prefix)) log(`removed ${folder}, left behind by a killed run`);
+  const root = createScratchFolder(options.prefix);
+  const started: { cluster?: RunningCluster; mail?: MailCatcher; app?: RunningApp } = {};
+  let stopped = false;
+  const stop = async () => {
+    if (stopped) return;
+    stopped = true;
+    await started.app?.stop();
+    await started.mail?.stop();
+    started.cluster?.stop();
+    rmSync(root, { recursive: true, force: true });
+  };
+  try {
+    const cluster = await startCluster({ root: path.join(root, "pg"), port: await freePort(), database: "peeksafe", fast: options.fast ?? true });
+    started.cluster = cluster;
+    await migrateDatabase(cluster.url);
+    const mail = await startMailCatcher({ smtpPort: await freePort(), httpPort: await freePort() });
+    started.mail = mail;
+    const appPort = await freePort();
+    const env: NodeJS.ProcessEnv = {
+      ...process.env,
+      NEXT_DIST_DIR: options.distDir,
+      DATABASE_URL: cluster.url,
+      BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
+      APP_URL: `http://127.0.0.1:${appPort}`,
+      SMTP_URL: `smtp://127.0.0.1:${mail.smtpPort}`,
+      MAIL_CATCHER_URL: `http://127.0.0.1:${mail.httpPort}`,
+      AUTH_RATE_LIMIT: "off",
+      LOG_LEVEL: "warn",
+    };
+    process.env.DATABASE_URL = cluster.url;
+    if (options.app) {
+      if (options.rebuild || !existsSync(path.resolve(options.distDir, "BUILD_ID"))) {
+        log(`building the app into ${options.distDir}`);
+        buildApp(env);
+      }
+      started.app = await startApp({ port: appPort, env, quiet: true });
+      log(`app on ${started.app.url} (pid ${started.app.child.pid}), PostgreSQL on 127.0.0.1:${cluster.port}`);
+    }
+    return { databaseUrl: cluster.url, appUrl: started.app?.url, app: started.app, cluster, mail, env, stop };
+  } catch (error) {
+    await stop();
+    throw error;
+  }
+}
