@@ -28,6 +28,7 @@ export default defineConfig({
             "tests/actions/**/*.test.ts",
             "tests/cron/**/*.test.ts",
             "tests/e2e/**/*.test.ts",
+            "tests/faults/**/*.test.ts",
           ],
           environment: "node",
           globalSetup: ["tests/setup/global-setup.ts"],

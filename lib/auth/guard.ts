@@ -1,3 +1,4 @@
+import { getPool } from "@/db";
 import { getMembership } from "@/db/queries/members";
 import { getEnv } from "@/lib/env";
 import { ForbiddenError, RateLimitedError, UnauthorizedError } from "@/lib/errors";
@@ -31,6 +32,8 @@ async function authorizeKey(key: string, permission: Permission): Promise<Caller
       const details = (result.error as { details?: { tryAgainIn?: number } }).details;
       throw new RateLimitedError("This API key sent too many requests.", Math.max(1, Math.ceil((details?.tryAgainIn ?? 1000) / 1000)));
     }
+    // better-auth answers "invalid" when its lookup fails too; a database that is down must be a 503, not a 401.
+    await getPool().query("select 1");
     throw new UnauthorizedError("The API key is missing, unknown or revoked.");
   }
   const granted = (result.key.permissions ?? {}) as Record<string, string[]>;
@@ -61,7 +64,10 @@ export async function authorizeRequest(
     }
   }
   const session = await getAuth().api.getSession({ headers: request.headers });
-  if (!session) throw new UnauthorizedError();
+  if (!session) {
+    await getPool().query("select 1");
+    throw new UnauthorizedError();
+  }
   const workspaceId = options.workspaceId ?? session.session.activeOrganizationId;
   if (!workspaceId) throw new ForbiddenError("Choose a workspace first.");
   const membership = await getMembership(workspaceId, session.user.id);

@@ -61,6 +61,19 @@ export function toResponse(error: unknown, instance?: string): Response {
       headers,
     );
   }
+  if (isDatabaseUnavailable(error)) {
+    console.error("unavailable", describe(error));
+    return problemResponse(
+      {
+        type: `${PROBLEM_TYPE_BASE}unavailable`,
+        title: "Service unavailable",
+        status: 503,
+        detail: "A service we depend on did not answer; try again shortly. Resending an ingest batch with the same Idempotency-Key is safe.",
+        instance,
+      },
+      { "retry-after": "1" },
+    );
+  }
   console.error("unexpected error", error);
   return problemResponse({
     type: `${PROBLEM_TYPE_BASE}internal`,
@@ -69,6 +82,26 @@ export function toResponse(error: unknown, instance?: string): Response {
     detail: "Something went wrong on our side; the request was not applied.",
     instance,
   });
+}
+
+// Connection-level failures (server restarting, socket dropped), not errors of the statement itself.
+const UNAVAILABLE_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "EPIPE", "ETIMEDOUT", "57P01", "57P02", "57P03", "08000", "08001", "08003", "08004", "08006"]);
+const UNAVAILABLE_MESSAGE = /^(Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error)/;
+
+/** True when `error`, or an error it wraps (drizzle wraps the driver's), says PostgreSQL cannot be reached. */
+export function isDatabaseUnavailable(error: unknown): boolean {
+  for (let current = error, depth = 0; current instanceof Error && depth < 5; current = current.cause, depth++) {
+    const code = (current as NodeJS.ErrnoException).code;
+    if ((code && UNAVAILABLE_CODES.has(code)) || UNAVAILABLE_MESSAGE.test(current.message)) return true;
+    if (current instanceof AggregateError && current.errors.some((inner) => isDatabaseUnavailable(inner))) return true;
+  }
+  return false;
+}
+
+function describe(error: unknown): string {
+  const messages: string[] = [];
+  for (let current = error, depth = 0; current instanceof Error && depth < 5; current = current.cause, depth++) messages.push(current.message);
+  return messages.join(" <- ");
 }
 
 /** Parses a JSON body, turning malformed JSON into a 400 problem rather than a 500. */

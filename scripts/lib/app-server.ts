@@ -79,7 +79,8 @@ export async function startApp(options: { port: number; env: NodeJS.ProcessEnv; 
     child,
     stop: () =>
       new Promise<void>((resolve) => {
-        if (child.exitCode !== null) return resolve();
+        // A process ended by a signal has no exit code, only a signal code; its "exit" has fired already.
+        if (child.exitCode !== null || child.signalCode !== null) return resolve();
         child.once("exit", () => resolve());
         child.kill("SIGTERM");
         setTimeout(() => child.kill("SIGKILL"), 5000).unref();

@@ -166,11 +166,14 @@ export async function startCluster(options: ClusterOptions): Promise<RunningClus
   };
 }
 
-/** Stops the cluster in `root` (fast shutdown); a no-op when it is not running. */
-export function stopCluster(root: string): void {
+/**
+ * Stops the cluster in `root`; a no-op when it is not running. `fast` rolls back open transactions and
+ * checkpoints; `immediate` aborts like a crash (the next start replays the WAL).
+ */
+export function stopCluster(root: string, mode: "fast" | "immediate" = "fast"): void {
   const dataDir = path.join(path.resolve(root), "data");
   if (!existsSync(path.join(dataDir, "PG_VERSION"))) return;
   const bin = findPostgresBin();
   const running = runAsOwner(path.join(bin, "pg_ctl"), ["-D", dataDir, "status"], { allowFailure: true }) === 0;
-  if (running) runAsOwner(path.join(bin, "pg_ctl"), ["-D", dataDir, "-m", "fast", "-w", "stop"]);
+  if (running) runAsOwner(path.join(bin, "pg_ctl"), ["-D", dataDir, "-m", mode, "-w", "stop"]);
 }
