@@ -1,36 +1,26 @@
-import { asc, eq, inArray, sql } from "drizzle-orm";
+import { asc, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db";
-import { arms, dailyCountRevisions, dailyCounts } from "@/db/schema";
+import { arms, dailyCounts } from "@/db/schema";
 import type { Executor, Transaction } from "./campaigns";
 
-export interface StoredCount {
-  id: string;
+/** The part of a stored count the cumulative check reads. */
+export interface StoredTotal {
   armId: string;
   day: string;
   units: number;
   sum: number;
-  sumSquares: number;
-  source: "api" | "csv" | "manual" | "seed";
-  batchId: string | null;
-  revision: number;
 }
 
-const countColumns = {
-  id: dailyCounts.id,
-  armId: dailyCounts.armId,
-  day: dailyCounts.day,
-  units: dailyCounts.units,
-  sum: dailyCounts.sum,
-  sumSquares: dailyCounts.sumSquares,
-  source: dailyCounts.source,
-  batchId: dailyCounts.batchId,
-  revision: dailyCounts.revision,
-};
-
-/** Every stored count of the given arms, locked for the caller's transaction, by arm and day. */
-export async function lockCountsOfArms(tx: Transaction, armIds: string[]): Promise<StoredCount[]> {
+/**
+ * Units and sums of every stored day of the given arms. No row locks: every writer of an arm's counts
+ * holds its campaign's advisory lock and row lock first (lib/ingest/ingest-batch.ts).
+ */
+export async function listStoredTotals(tx: Transaction, armIds: string[]): Promise<StoredTotal[]> {
   if (armIds.length === 0) return [];
-  return tx.select(countColumns).from(dailyCounts).where(inArray(dailyCounts.armId, armIds)).orderBy(asc(dailyCounts.armId), asc(dailyCounts.day)).for("update");
+  const result = await tx.execute<{ armId: string; day: string; units: number; sum: number }>(
+    sql`select arm_id as "armId", day::text as day, units, sum from daily_counts where arm_id = any(${sql.param(armIds)}::uuid[])`,
+  );
+  return result.rows;
 }
 
 /** A campaign's daily counts with their arm keys, by day then arm position (the campaign is already scoped). */
@@ -52,63 +42,68 @@ export interface CountWrite {
   sumSquares: number;
 }
 
-const CHUNK = 1_000;
-
-/** Keeps the values a batch is about to replace, so nothing acknowledged is lost. */
-export async function createCountRevisions(tx: Transaction, replaced: { old: StoredCount; campaignId: string }[], replacedByBatchId: string): Promise<void> {
-  for (let start = 0; start < replaced.length; start += CHUNK) {
-    await tx.insert(dailyCountRevisions).values(
-      replaced.slice(start, start + CHUNK).map(({ old, campaignId }) => ({
-        dailyCountId: old.id,
-        campaignId,
-        armId: old.armId,
-        day: old.day,
-        revision: old.revision,
-        units: old.units,
-        sum: old.sum,
-        sumSquares: old.sumSquares,
-        source: old.source,
-        batchId: old.batchId,
-        replacedByBatchId,
-      })),
-    );
-  }
+export interface CountBatch {
+  id: string;
+  workspaceId: string;
+  apiKeyId: string | null;
+  userId: string | null;
+  source: "api" | "csv";
+  idempotencyKey: string;
+  requestHash: string;
 }
 
-const excluded = (column: { name: string }) => sql.raw(`excluded."${column.name}"`);
+export interface CountBatchTally {
+  accepted: number;
+  replaced: number;
+  unchanged: number;
+  /** Campaigns with at least one new or replaced count. */
+  changedCampaignIds: string[];
+}
 
 /**
- * Inserts new (arm, day) counts and replaces changed ones in one statement per chunk; a row equal to the
- * stored one is left alone (the WHERE of the upsert), a replaced one gets its revision number raised.
+ * Stores a validated batch in one statement: keeps the stored values a row is about to replace as
+ * revisions, inserts new (arm, day) counts and replaces changed ones (revision raised), leaves equal
+ * ones alone, and records the batch with its answer. Each (arm, day) appears at most once in `rows`.
  */
-export async function upsertDailyCounts(tx: Transaction, rows: CountWrite[], source: "api" | "csv", batchId: string): Promise<void> {
-  for (let start = 0; start < rows.length; start += CHUNK) {
-    await tx
-      .insert(dailyCounts)
-      .values(
-        rows.slice(start, start + CHUNK).map((row) => ({
-          campaignId: row.campaignId,
-          armId: row.armId,
-          day: row.day,
-          units: row.units,
-          sum: row.sum,
-          sumSquares: row.sumSquares,
-          source,
-          batchId,
-        })),
-      )
-      .onConflictDoUpdate({
-        target: [dailyCounts.armId, dailyCounts.day],
-        set: {
-          units: excluded(dailyCounts.units),
-          sum: excluded(dailyCounts.sum),
-          sumSquares: excluded(dailyCounts.sumSquares),
-          source: excluded(dailyCounts.source),
-          batchId: excluded(dailyCounts.batchId),
-          revision: sql`${dailyCounts.revision} + 1`,
-          updatedAt: sql`now()`,
-        },
-        setWhere: sql`(${dailyCounts.units}, ${dailyCounts.sum}, ${dailyCounts.sumSquares}) is distinct from (${excluded(dailyCounts.units)}, ${excluded(dailyCounts.sum)}, ${excluded(dailyCounts.sumSquares)})`,
-      });
-  }
+export async function storeCountBatch(tx: Transaction, batch: CountBatch, rows: CountWrite[]): Promise<CountBatchTally> {
+  const column = <K extends keyof CountWrite>(key: K) => sql.param(rows.map((row) => row[key]));
+  const result = await tx.execute<{ accepted: number; replaced: number; changedCampaignIds: string[] | null }>(sql`
+    with input as (
+      select * from unnest(${column("campaignId")}::uuid[], ${column("armId")}::uuid[], ${column("day")}::date[],
+        ${column("units")}::integer[], ${column("sum")}::float8[], ${column("sumSquares")}::float8[])
+        as input (campaign_id, arm_id, day, units, sum, sum_squares)
+    ),
+    revisions as (
+      insert into daily_count_revisions (daily_count_id, campaign_id, arm_id, day, revision, units, sum, sum_squares, source, batch_id, replaced_by_batch_id)
+      select stored.id, stored.campaign_id, stored.arm_id, stored.day, stored.revision, stored.units, stored.sum, stored.sum_squares, stored.source, stored.batch_id, ${batch.id}::uuid
+      from input join daily_counts stored on stored.arm_id = input.arm_id and stored.day = input.day
+      where (stored.units, stored.sum, stored.sum_squares) is distinct from (input.units, input.sum, input.sum_squares)
+    ),
+    written as (
+      insert into daily_counts as stored (campaign_id, arm_id, day, units, sum, sum_squares, source, batch_id)
+      select campaign_id, arm_id, day, units, sum, sum_squares, ${batch.source}, ${batch.id}::uuid from input
+      on conflict (arm_id, day) do update set
+        units = excluded.units, sum = excluded.sum, sum_squares = excluded.sum_squares, source = excluded.source,
+        batch_id = excluded.batch_id, revision = stored.revision + 1, updated_at = now()
+        where (stored.units, stored.sum, stored.sum_squares) is distinct from (excluded.units, excluded.sum, excluded.sum_squares)
+      returning stored.campaign_id, stored.xmax = 0 as inserted
+    ),
+    tally as (
+      select count(*) filter (where inserted)::integer as accepted, count(*) filter (where not inserted)::integer as replaced,
+        array_agg(distinct campaign_id::text) as changed_campaign_ids
+      from written
+    ),
+    -- The daily_counts foreign keys to this row are checked at the end of the statement, when it exists.
+    recorded as (
+      insert into ingest_batches (id, workspace_id, api_key_id, user_id, source, idempotency_key, request_hash, row_count,
+        accepted, replaced, unchanged, outcome, response_status, response_body)
+      select ${batch.id}::uuid, ${batch.workspaceId}, ${batch.apiKeyId}, ${batch.userId}, ${batch.source}, ${batch.idempotencyKey}, ${batch.requestHash}, ${rows.length},
+        accepted, replaced, ${rows.length} - accepted - replaced, 'accepted', 200,
+        jsonb_build_object('batchId', ${batch.id}::text, 'accepted', accepted, 'replaced', replaced, 'unchanged', ${rows.length} - accepted - replaced)
+      from tally
+    )
+    select accepted, replaced, changed_campaign_ids as "changedCampaignIds" from tally
+  `);
+  const [tally] = result.rows;
+  return { accepted: tally.accepted, replaced: tally.replaced, unchanged: rows.length - tally.accepted - tally.replaced, changedCampaignIds: tally.changedCampaignIds ?? [] };
 }

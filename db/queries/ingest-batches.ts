@@ -20,27 +20,6 @@ export async function getIngestBatch(executor: Executor, workspaceId: string, id
   return row ?? null;
 }
 
-export interface NewIngestBatch {
-  id: string;
-  workspaceId: string;
-  apiKeyId: string | null;
-  userId: string | null;
-  source: "api" | "csv";
-  idempotencyKey: string;
-  requestHash: string;
-  rowCount: number;
-  accepted: number;
-  replaced: number;
-  unchanged: number;
-  responseStatus: number;
-  responseBody: unknown;
-}
-
-/** Records an accepted batch (who, when, how many rows, the answer given). */
-export async function createIngestBatch(executor: Executor, batch: NewIngestBatch): Promise<void> {
-  await executor.insert(ingestBatches).values({ ...batch, outcome: "accepted" });
-}
-
 /** The workspace's latest batches, newest first. */
 export async function listIngestBatches(workspaceId: string, limit = 50) {
   return getDb()

@@ -3,8 +3,8 @@ import { and, eq, inArray, or, sql } from "drizzle-orm";
 import { getDb } from "@/db";
 import { listArmsOfCampaigns } from "@/db/queries/arms";
 import { lockCampaignRows, markCampaignsForRecompute, type Transaction } from "@/db/queries/campaigns";
-import { createCountRevisions, lockCountsOfArms, upsertDailyCounts, type CountWrite, type StoredCount } from "@/db/queries/daily-counts";
-import { createIngestBatch, getIngestBatch } from "@/db/queries/ingest-batches";
+import { listStoredTotals, storeCountBatch, type CountWrite, type StoredTotal } from "@/db/queries/daily-counts";
+import { getIngestBatch } from "@/db/queries/ingest-batches";
 import { campaigns, organizations } from "@/db/schema";
 import { ConflictError, ValidationError, type FieldProblem } from "@/lib/errors";
 import type { IngestResult, IngestRow } from "@/lib/validation/ingest";
@@ -105,48 +105,20 @@ export async function ingestBatch(request: IngestRequest): Promise<IngestOutcome
     });
     if (errors.length > 0) throw new ValidationError(rejection(errors.length), errors);
 
-    const stored = await lockCountsOfArms(tx, [...new Set(writes.map((write) => write.armId))]);
-    const storedByKey = new Map(stored.map((count) => [`${count.armId}|${count.day}`, count]));
     const conversionCampaigns = new Set([...fresh.values()].filter((campaign) => campaign.metricKind === "conversion").map((campaign) => campaign.id));
-    errors.push(...cumulativeProblems(stored, writes.filter((write) => conversionCampaigns.has(write.campaignId))));
+    const conversionWrites = writes.filter((write) => conversionCampaigns.has(write.campaignId));
+    const stored = await listStoredTotals(tx, [...new Set(conversionWrites.map((write) => write.armId))]);
+    errors.push(...cumulativeProblems(stored, conversionWrites));
     if (errors.length > 0) throw new ValidationError(rejection(errors.length), errors);
 
     const batchId = randomUUID();
-    const changed: CountWrite[] = [];
-    const replaced: { old: StoredCount; campaignId: string }[] = [];
-    let accepted = 0;
-    let unchanged = 0;
-    for (const write of writes) {
-      const old = storedByKey.get(`${write.armId}|${write.day}`);
-      if (!old) {
-        accepted += 1;
-        changed.push(write);
-      } else if (old.units === write.units && old.sum === write.sum && old.sumSquares === write.sumSquares) {
-        unchanged += 1;
-      } else {
-        replaced.push({ old, campaignId: write.campaignId });
-        changed.push(write);
-      }
-    }
-    const body: IngestResult = { batchId, accepted, replaced: replaced.length, unchanged };
-    await createIngestBatch(tx, {
-      id: batchId,
-      workspaceId: request.workspaceId,
-      apiKeyId: request.apiKeyId ?? null,
-      userId: request.userId ?? null,
-      source: request.source,
-      idempotencyKey: request.idempotencyKey,
-      requestHash: hash,
-      rowCount: request.rows.length,
-      accepted,
-      replaced: replaced.length,
-      unchanged,
-      responseStatus: 200,
-      responseBody: body,
-    });
-    await createCountRevisions(tx, replaced, batchId);
-    await upsertDailyCounts(tx, changed, request.source, batchId);
-    await markCampaignsForRecompute(tx, [...new Set(changed.map((write) => write.campaignId))]);
+    const tally = await storeCountBatch(
+      tx,
+      { id: batchId, workspaceId: request.workspaceId, apiKeyId: request.apiKeyId ?? null, userId: request.userId ?? null, source: request.source, idempotencyKey: request.idempotencyKey, requestHash: hash },
+      writes,
+    );
+    const body: IngestResult = { batchId, accepted: tally.accepted, replaced: tally.replaced, unchanged: tally.unchanged };
+    await markCampaignsForRecompute(tx, tally.changedCampaignIds);
     return { status: 200, body, replayed: false };
   });
 }
@@ -185,7 +157,7 @@ async function workspaceTimeZone(tx: Transaction, workspaceId: string): Promise<
  * day of an arm may have more conversions so far than units so far. The blamed row is the batch's
  * last row of that arm on or before the first day that breaks it.
  */
-function cumulativeProblems(stored: StoredCount[], writes: (CountWrite & { index: number })[]): FieldProblem[] {
+function cumulativeProblems(stored: StoredTotal[], writes: (CountWrite & { index: number })[]): FieldProblem[] {
   const byArm = new Map<string, Map<string, { units: number; sum: number; index?: number }>>();
   for (const count of stored) {
     const days = byArm.get(count.armId) ?? new Map();

@@ -82,6 +82,29 @@ describe("POST /api/v1/ingest: accepted batches", () => {
     expect(await getDb().select().from(dailyCountRevisions).where(eq(dailyCountRevisions.campaignId, campaign.id))).toHaveLength(1);
   });
 
+  it("tallies a batch of new, replaced and unchanged rows over two campaigns in the answer, the batch record and the revisions", async () => {
+    const [first, second] = await Promise.all([createCampaign(northwind, { startDate: day(-5) }), createCampaign(northwind, { startDate: day(-5) })]);
+    const seeded = await pushCounts(key, [countRow(first.id, "holdout", day(-3), 100, 5), countRow(first.id, "treatment", day(-3), 900, 40), countRow(second.id, "holdout", day(-3), 200, 7)]);
+    expect(seeded.body).toMatchObject({ accepted: 3, replaced: 0, unchanged: 0 });
+    const mixed = await pushCounts(key, [
+      countRow(first.id, "holdout", day(-3), 100, 5),
+      countRow(first.id, "treatment", day(-3), 901, 40),
+      countRow(second.id, "holdout", day(-3), 200, 8),
+      countRow(second.id, "treatment", day(-2), 800, 30),
+      countRow(second.id, "holdout", day(-2), 150, 6),
+    ]);
+    expect(mixed.status).toBe(200);
+    expect(mixed.body).toEqual({ batchId: expect.any(String), accepted: 2, replaced: 2, unchanged: 1 });
+    const [batch] = await getDb().select().from(ingestBatches).where(eq(ingestBatches.id, mixed.body.batchId as string));
+    expect(batch).toMatchObject({ rowCount: 5, accepted: 2, replaced: 2, unchanged: 1, responseStatus: 200, responseBody: mixed.body });
+    const revisions = await getDb().select().from(dailyCountRevisions).where(eq(dailyCountRevisions.replacedByBatchId, mixed.body.batchId as string));
+    expect(revisions.map((revision) => [revision.campaignId, revision.units, revision.sum, revision.revision, revision.batchId]).sort()).toEqual(
+      [[first.id, 900, 40, 0, seeded.body.batchId], [second.id, 200, 7, 0, seeded.body.batchId]].sort(),
+    );
+    const counts = [...(await countsOf(first.id)), ...(await countsOf(second.id))];
+    expect(counts.map((count) => [count.units, count.sum, count.revision]).sort()).toEqual([[100, 5, 0], [901, 40, 1], [200, 8, 1], [800, 30, 0], [150, 6, 0]].sort());
+  });
+
   it("stores a mean metric's units, sum and sum of squares", async () => {
     const response = await pushCounts(key, [
       { campaign: mean.id, arm: "holdout", date: day(-3), units: 200, sum: 840.5, sumSquares: 65_000.25 },
