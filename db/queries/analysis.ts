@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, gt, inArray, isNull, or, sql } from "drizzle-orm";
 import { getDb, type Database } from "@/db";
-import { analysisDays, arms, campaigns, dailyCounts, organizations, type NewAnalysisDay } from "@/db/schema";
+import { analysisDays, campaigns, organizations } from "@/db/schema";
 import type { CallName } from "@/db/schema";
 
 /** A transaction of the shared database. */
@@ -58,74 +58,6 @@ export interface AnalysisInputs {
   arms: { key: string; name: string; plannedShare: number; position: number }[];
   /** Daily new counts per arm, by day then arm key. */
   rows: { date: string; arm: string; n: number; sum: number; sumSq: number }[];
-}
-
-/**
- * Locks the campaign row for this transaction (`for update`: one recompute of a campaign at a time)
- * and reads its plan, arms and daily counts. Null when the campaign does not exist.
- */
-export async function lockAnalysisInputs(tx: Transaction, campaignId: string): Promise<AnalysisInputs | null> {
-  const found = await tx
-    .select({
-      id: campaigns.id,
-      workspaceId: campaigns.workspaceId,
-      name: campaigns.name,
-      status: campaigns.status,
-      metricKind: campaigns.metricKind,
-      metricName: campaigns.metricName,
-      metricUnit: campaigns.metricUnit,
-      alpha: campaigns.alpha,
-      power: campaigns.power,
-      sides: campaigns.sides,
-      baselineRate: campaigns.baselineRate,
-      baselineMean: campaigns.baselineMean,
-      baselineSd: campaigns.baselineSd,
-      minimumLift: campaigns.minimumLift,
-      tau: campaigns.tau,
-      maxDays: campaigns.maxDays,
-      currentCall: campaigns.currentCall,
-      analysisInputsHash: campaigns.analysisInputsHash,
-    })
-    .from(campaigns)
-    .where(eq(campaigns.id, campaignId))
-    .for("update");
-  const campaign = found[0];
-  if (!campaign) return null;
-  const armRows = await tx
-    .select({ id: arms.id, key: arms.key, name: arms.name, plannedShare: arms.plannedShare, position: arms.position })
-    .from(arms)
-    .where(eq(arms.campaignId, campaignId))
-    .orderBy(asc(arms.position), asc(arms.key));
-  const counts = await tx
-    .select({ date: dailyCounts.day, arm: arms.key, n: dailyCounts.units, sum: dailyCounts.sum, sumSq: dailyCounts.sumSquares })
-    .from(dailyCounts)
-    .innerJoin(arms, eq(arms.id, dailyCounts.armId))
-    .where(eq(dailyCounts.campaignId, campaignId))
-    .orderBy(asc(dailyCounts.day), asc(arms.key));
-  return { campaign, arms: armRows.map(({ key, name, plannedShare, position }) => ({ key, name, plannedShare, position })), rows: counts };
-}
-
-/** Replaces every analysis day of the campaign (inside the recompute transaction). */
-export async function replaceAnalysisDays(tx: Transaction, campaignId: string, days: NewAnalysisDay[]): Promise<void> {
-  await tx.delete(analysisDays).where(eq(analysisDays.campaignId, campaignId));
-  for (let start = 0; start < days.length; start += 500) {
-    await tx.insert(analysisDays).values(days.slice(start, start + 500));
-  }
-}
-
-/** Records the campaign's current call and the hash of the inputs it was computed from. */
-export async function markCampaignAnalyzed(tx: Transaction, campaignId: string, values: { call: CallName; inputsHash: string }): Promise<Date> {
-  const [row] = await tx
-    .update(campaigns)
-    .set({ currentCall: values.call, analysisInputsHash: values.inputsHash, analyzedAt: sql`clock_timestamp()` })
-    .where(eq(campaigns.id, campaignId))
-    .returning({ analyzedAt: campaigns.analyzedAt });
-  return row.analyzedAt!;
-}
-
-/** Notes that a campaign's inputs were checked and found unchanged (a skipped recompute). */
-export async function touchCampaignAnalyzed(tx: Transaction, campaignId: string): Promise<void> {
-  await tx.update(campaigns).set({ analyzedAt: sql`clock_timestamp()` }).where(eq(campaigns.id, campaignId));
 }
 
 export interface AnalysisRefresh {
