@@ -25,6 +25,14 @@ export async function withJobLock<T>(
 ): Promise<LockedRun<T>> {
   const client = await getPool().connect();
   let held = false;
+  // A checked-out client with no query running has no one to hand a dropped connection to: without a
+  // listener its "error" would kill the worker (PostgreSQL restarting mid-job). The lock went with it.
+  let lost: Error | undefined;
+  const onError = (error: Error) => {
+    lost = error;
+    logger.warn({ job, lock: JOB_LOCKS[job], err: error }, "lost the lock's connection; this run finishes without the lock");
+  };
+  client.on("error", onError);
   try {
     if (options.wait) {
       const free = await client.query<{ ok: boolean }>("select pg_try_advisory_lock($1) as ok", [JOB_LOCKS[job]]);
@@ -43,7 +51,13 @@ export async function withJobLock<T>(
     }
     return { ran: true, result: await run() };
   } finally {
-    if (held) await client.query("select pg_advisory_unlock($1)", [JOB_LOCKS[job]]).catch(() => undefined);
-    client.release();
+    if (held && !lost) {
+      await client.query("select pg_advisory_unlock($1)", [JOB_LOCKS[job]]).catch((error: Error) => {
+        lost = error;
+      });
+    }
+    client.removeListener("error", onError);
+    // A broken connection is thrown away, not put back in the pool.
+    client.release(lost);
   }
 }

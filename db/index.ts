@@ -17,6 +17,11 @@ function createPool(): Pool {
   pool.on("error", (error) => {
     console.error("postgres pool error", error.message);
   });
+  // The pool listens only to idle clients: a checked-out one between two queries has no one to hand a
+  // dropped connection to, and an unheard "error" ends the process (the worker, mid-pass).
+  pool.on("connect", (client) => {
+    client.on("error", (error) => console.error("postgres connection lost", error.message));
+  });
   return pool;
 }
 
