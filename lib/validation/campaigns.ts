@@ -1,6 +1,7 @@
 import { z } from "zod";
-import { CAMPAIGN_STATUSES } from "@/db/schema/campaigns";
-import { dayNumber } from "@/lib/sequential";
+import type { CampaignStatus } from "@/db/schema/campaigns";
+// The one helper, not the engine barrel: the campaign form ships this schema to the browser.
+import { dayNumber } from "@/lib/sequential/day-number";
 
 /** The holdout arm's key in every plan (the statistics engine looks for it). */
 export const HOLDOUT_KEY = "holdout";
@@ -93,6 +94,12 @@ export const createCampaignSchema = z
   .superRefine(checkPlan);
 export type CreateCampaignInput = z.infer<typeof createCampaignSchema>;
 
+// The statuses are spelled here, not imported from db/schema (drizzle would follow this schema into the
+// campaign form's browser bundle); tsc checks that both lists name the same statuses.
+const CAMPAIGN_STATUSES = ["draft", "running", "paused", "ended", "archived"] as const satisfies readonly CampaignStatus[];
+const everyStatusListed: Exclude<CampaignStatus, (typeof CAMPAIGN_STATUSES)[number]> extends never ? true : false = true;
+void everyStatusListed;
+
 /** A lifecycle move. */
 export const campaignStatusSchema = z.enum(CAMPAIGN_STATUSES);
 
@@ -120,6 +127,12 @@ export const listCampaignsQuerySchema = z.object({
 });
 
 /** A campaign is named in URLs and ingest rows by its id (uuid) or its slug. */
-export const campaignReferenceSchema = z.string().trim().min(1).max(140);
+export const campaignReferenceSchema = z
+  .string()
+  .trim()
+  .min(1)
+  .max(140)
+  // PostgreSQL refuses a NUL in text with an error, not "no such row": stop control characters here.
+  .regex(/^[^\u0000-\u001f\u007f]*$/, "A campaign id or slug has no control characters");
 
 export const UUID_PATTERN = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;

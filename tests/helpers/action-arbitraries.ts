@@ -1,0 +1,184 @@
+import assert from "node:assert/strict";
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import fc from "fast-check";
+import type { CampaignDto } from "@/db/queries/campaigns";
+import { createWorkspaceWithRoles, type TestWorkspace } from "../factories";
+import { createCampaign, dayFromToday } from "../factories-campaigns";
+
+// Generated bad arguments for every server action in app/**/actions.ts (issue 7, "Bad input"), called as
+// the browser calls them, by the workspace admin (allowed to call each). Shared by
+// tests/actions/fuzz-actions.test.ts and the long soak script.
+
+/** Each action: the page it is posted to, the file it lives in, and how many arguments it takes. */
+export const ACTIONS = {
+  inviteMemberAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  cancelInvitationAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  updateMemberRoleAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  removeMemberAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  createApiKeyAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  revokeApiKeyAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  updateWorkspaceAction: { page: "/settings", file: "settings/actions", arity: 1 },
+  updateAlertRuleAction: { page: "/settings/alerts", file: "settings/alerts/actions", arity: 1 },
+  createCampaignAction: { page: "/campaigns", file: "campaigns/actions", arity: 1 },
+  moveCampaignAction: { page: "/campaigns", file: "campaigns/actions", arity: 2 },
+} as const;
+export type ActionName = keyof typeof ACTIONS;
+export const ACTION_NAMES = Object.keys(ACTIONS) as ActionName[];
+
+export type ActionResult = { ok: true; data: unknown } | { ok: false; error: string; fieldErrors?: Record<string, string[] | undefined> };
+
+/** The action ids of the build in `distDir`, from its server-reference manifest. */
+export function loadActionIds(distDir = process.env.NEXT_DIST_DIR ?? ".next"): Record<ActionName, string> {
+  const manifest = JSON.parse(readFileSync(path.resolve(distDir, "server/server-reference-manifest.json"), "utf8")) as {
+    node: Record<string, { exportedName?: string; filename?: string }>;
+  };
+  const ids: Partial<Record<ActionName, string>> = {};
+  for (const [id, entry] of Object.entries(manifest.node)) {
+    const name = entry.exportedName as ActionName | undefined;
+    if (name && name in ACTIONS && (entry.filename ?? "").includes(`${ACTIONS[name].file}.`)) ids[name] = id;
+  }
+  for (const name of ACTION_NAMES) if (!ids[name]) throw new Error(`no id for ${name} in the server-reference manifest`);
+  return ids as Record<ActionName, string>;
+}
+
+export interface ActionFuzzWorld {
+  appUrl: string;
+  northwind: TestWorkspace;
+  other: TestWorkspace;
+  campaign: CampaignDto;
+  foreign: CampaignDto;
+  actionIds: Record<ActionName, string>;
+}
+
+export async function createActionFuzzWorld(appUrl: string, distDir?: string): Promise<ActionFuzzWorld> {
+  const [northwind, other] = await Promise.all([createWorkspaceWithRoles("Northwind Outfitters"), createWorkspaceWithRoles("Northwind Outfitters EU")]);
+  const campaign = await createCampaign(northwind, { startDate: dayFromToday(-10) });
+  const foreign = await createCampaign(other, { startDate: dayFromToday(-10) });
+  return { appUrl, northwind, other, campaign, foreign, actionIds: loadActionIds(distDir) };
+}
+
+export interface ActionCase {
+  action: ActionName;
+  /** `json`: React's reply encoding of the arguments; `form`: one FormData argument, as a form submits it. */
+  encoding: "json" | "form";
+  args: unknown[];
+  form?: [string, string][];
+}
+
+const hugeText = fc.integer({ min: 200, max: 70_000 }).map((length) => "x".repeat(length));
+
+/** Values of the wrong type, out of range or naming nothing of ours. */
+function badValue(world: ActionFuzzWorld): fc.Arbitrary<unknown> {
+  return fc.oneof(
+    fc.constantFrom<unknown>(null, true, false, 0, -1, 1.5, 1e308, -1e308, "", " ", "\u0000", "🙂", "<script>", "=1+1", [], [1], {}, { $: 1 }, "not-a-uuid", "00000000-0000-0000-0000-000000000000"),
+    fc.constantFrom<unknown>(world.foreign.id, world.foreign.slug, world.other.id),
+    hugeText,
+    fc.string({ maxLength: 20, unit: "grapheme" }),
+    fc.integer(),
+    fc.double(),
+  );
+}
+
+/** A valid-looking input per action, broken in one field below, so nothing generated can succeed. */
+function inputShape(name: ActionName): string[] {
+  switch (name) {
+    case "inviteMemberAction":
+      return ["email", "role"];
+    case "cancelInvitationAction":
+      return ["invitationId"];
+    case "updateMemberRoleAction":
+      return ["memberId", "role"];
+    case "removeMemberAction":
+      return ["memberId"];
+    case "createApiKeyAction":
+      return ["name", "permissions"];
+    case "revokeApiKeyAction":
+      return ["keyId"];
+    case "updateWorkspaceAction":
+      return ["name", "timeZone"];
+    case "updateAlertRuleAction":
+      return ["calls", "defaultRecipientRoles", "extraRecipients", "dailyDigest"];
+    case "createCampaignAction":
+      return ["name", "hypothesis", "metric", "baselineRate", "minimumLift", "alpha", "power", "sides", "arms", "startDate", "maxDays", "dailyUnits"];
+    case "moveCampaignAction":
+      return ["status"];
+  }
+}
+
+/** Bad values in any fields, one field always longer than any limit: no generated input is valid, so no call may write. */
+function badObject(world: ActionFuzzWorld, name: ActionName): fc.Arbitrary<Record<string, unknown>> {
+  const fields = inputShape(name);
+  const values = fc.record(Object.fromEntries(fields.map((field) => [field, badValue(world)])), { requiredKeys: [] });
+  const tooLong = fc.tuple(fc.constantFrom(...fields), fc.integer({ min: 7_000, max: 70_000 }));
+  return fc.tuple(values, tooLong).map(([object, [field, length]]) => ({ ...object, [field]: "x".repeat(length) }));
+}
+
+export function actionArbitraries(world: ActionFuzzWorld) {
+  const perAction = ACTION_NAMES.map((action) => {
+    const shapeless = fc.oneof(badValue(world), fc.array(badValue(world), { maxLength: 3 }), fc.integer({ min: 50, max: 3_000 }).map((depth) => JSON.parse("[".repeat(depth) + "]".repeat(depth)) as unknown));
+    const input = fc.oneof({ arbitrary: badObject(world, action), weight: 3 }, { arbitrary: shapeless, weight: 1 });
+    const json: fc.Arbitrary<ActionCase> =
+      action === "moveCampaignAction"
+        ? fc.tuple(fc.oneof(badValue(world), fc.constant(world.campaign.id)), badValue(world)).map(([id, status]) => ({ action, encoding: "json", args: [id, status] }))
+        : fc.tuple(input, fc.array(badValue(world), { maxLength: 2 })).map(([first, extra]) => ({ action, encoding: "json", args: [first, ...extra] }));
+    const form: fc.Arbitrary<ActionCase> = fc
+      .array(fc.tuple(fc.oneof(fc.constantFrom(...inputShape(action)), fc.string({ maxLength: 10 })), fc.oneof(badValue(world).map((value) => (typeof value === "string" ? value : JSON.stringify(value) ?? "")), hugeText)), { maxLength: 6 })
+      .map((entries) => ({ action, encoding: "form", args: [], form: entries }));
+    return fc.oneof({ arbitrary: json, weight: 3 }, { arbitrary: form, weight: 1 });
+  });
+  return { actionCase: fc.oneof(...perAction) };
+}
+
+/** Parses the action's return value out of the RSC flight answer (row 0 points at it with "$@<row>"). */
+export function parseFlightResult(text: string): ActionResult | null {
+  const rows = new Map<string, string>();
+  for (const line of text.split("\n")) {
+    const match = /^([0-9a-f]+):(.*)$/.exec(line);
+    if (match) rows.set(match[1], match[2]);
+  }
+  const head = rows.get("0");
+  if (!head) return null;
+  let value = (JSON.parse(head) as { a?: unknown }).a;
+  if (typeof value === "string" && value.startsWith("$@")) value = JSON.parse(rows.get(value.slice(2)) ?? "null");
+  return (value ?? null) as ActionResult | null;
+}
+
+/** Posts one generated call as the admin: a JSON argument list, or one FormData argument (`$K1` plus `1_<field>` parts). */
+export async function sendActionCase(world: ActionFuzzWorld, testCase: ActionCase): Promise<Response> {
+  const headers: Record<string, string> = { "next-action": world.actionIds[testCase.action], accept: "text/x-component" };
+  let body: BodyInit;
+  if (testCase.encoding === "form") {
+    const form = new FormData();
+    form.append("0", JSON.stringify(["$K1"]));
+    for (const [name, value] of testCase.form ?? []) form.append(`1_${name}`, value);
+    body = form;
+  } else {
+    headers["content-type"] = "text/plain;charset=UTF-8";
+    body = JSON.stringify(testCase.args);
+  }
+  return world.northwind.admin.client.fetch(ACTIONS[testCase.action].page, { method: "POST", headers, body });
+}
+
+/**
+ * Calls the action with a generated bad input and checks the answer: the action's own `{ ok: false,
+ * error }` (with `fieldErrors`, when given, as lists of messages), or a handled 4xx; never a 5xx.
+ * @returns the status
+ */
+export async function checkActionCase(world: ActionFuzzWorld, testCase: ActionCase): Promise<number> {
+  const response = await sendActionCase(world, testCase);
+  const text = await response.text();
+  const context = `${testCase.action} ${response.status}: ${text.slice(0, 300)}`;
+  assert.ok(response.status < 500, `expected no 5xx, got ${context}`);
+  if (response.status >= 400) return response.status;
+  assert.match(response.headers.get("content-type") ?? "", /text\/x-component/, `not an action answer: ${context}`);
+  const result = parseFlightResult(text);
+  assert.ok(result, `no action result: ${context}`);
+  assert.equal(result.ok, false, `a bad input was accepted: ${context}`);
+  if (result.ok) return response.status;
+  assert.ok(typeof result.error === "string" && result.error.length > 0, `no error message: ${context}`);
+  for (const [field, messages] of Object.entries(result.fieldErrors ?? {})) {
+    assert.ok(messages === undefined || (Array.isArray(messages) && messages.every((message) => typeof message === "string" && message.length > 0)), `bad fieldErrors.${field}: ${context}`);
+  }
+  return response.status;
+}
