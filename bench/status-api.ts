@@ -8,7 +8,9 @@
  *   - floods `GET /api/health` (the trivial handler: one `select 1`) and
  *     `GET /api/v1/campaigns/:id/status` (pipeline key) with 100 keep-alive connections for 10 s each;
  *   - offers a fixed 600 requests/s to the status route over 100 keep-alive connections for 10 s
- *     (autocannon `overallRate`: a fixed-rate load, not a flood) and reads its p99 latency.
+ *     (autocannon `overallRate`: a fixed-rate load, not a flood) and reads its p99 latency;
+ *   - floods the status route as a dashboard polls it: the admin's session cookie, with and without
+ *     the ETag of the last answer (If-None-Match: 304 without a body).
  * Writes bench/results/status-api.json.
  */
 import { randomUUID } from "node:crypto";
@@ -87,6 +89,10 @@ async function main(): Promise<void> {
     const trivial = await load(`${appUrl}/api/health`, {});
     const status = await load(statusUrl, headers);
     const fixed = await load(statusUrl, headers, OFFERED_RATE);
+    const cookie = [...workspace.admin.cookies].map(([name, value]) => `${name}=${value}`).join("; ");
+    const session = await load(statusUrl, { cookie });
+    const etag = (await fetch(statusUrl, { headers: { cookie } })).headers.get("etag") ?? "";
+    const conditional = await load(statusUrl, { cookie, "if-none-match": etag });
     const share = Math.round((status.requestsPerSecond / trivial.requestsPerSecond) * 100) / 100;
     const machine = machineLine();
     const results = {
@@ -99,6 +105,8 @@ async function main(): Promise<void> {
       targets: TARGETS,
       trivialRoute: { path: "/api/health", ...trivial },
       statusRoute: { path: "/api/v1/campaigns/:id/status", ...status, shareOfTrivial: share, meetsTarget: share >= TARGETS.throughputShareOfTrivial },
+      sessionRoute: { path: "/api/v1/campaigns/:id/status (session cookie)", ...session },
+      conditionalRoute: { path: "/api/v1/campaigns/:id/status (session cookie, If-None-Match: 304)", ...conditional },
       fixedRate: { offeredPerSecond: OFFERED_RATE, ...fixed, meetsTarget: fixed.latencyMs.p99 < TARGETS.p99AtOfferedRateMs && fixed.non2xx === 0 },
     };
     console.log(`\nStatus API under polling (autocannon, ${CONNECTIONS} keep-alive connections, ${DURATION_SECONDS} s each)`);
@@ -120,6 +128,8 @@ async function main(): Promise<void> {
       row("flood /api/health (trivial)", trivial, "1", "", ""),
       row("flood status", status, String(share), "≥ 0.8", results.statusRoute.meetsTarget),
       row(`status at ${OFFERED_RATE}/s offered`, fixed, "", "p99 < 50 ms", results.fixedRate.meetsTarget),
+      row("flood status, session cookie", session, String(Math.round((session.requestsPerSecond / trivial.requestsPerSecond) * 100) / 100), "", ""),
+      row("flood status, cookie + If-None-Match", conditional, String(Math.round((conditional.requestsPerSecond / trivial.requestsPerSecond) * 100) / 100), "", ""),
     ]);
     const file = writeResults("status-api", results);
     console.log(`\nwrote ${file}`);

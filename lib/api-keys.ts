@@ -1,5 +1,6 @@
 import { createAuditEvent } from "@/db/queries/audit-events";
 import { listApiKeys, revokeApiKey, type ApiKeySummary } from "@/db/queries/api-keys";
+import { forgetApiKey } from "@/lib/auth/key-cache";
 import { getAuth } from "@/lib/auth/server";
 import { NotFoundError } from "@/lib/errors";
 import { keyPermissionNames, keyStatements, type CreateApiKeyInput } from "@/lib/validation/api-keys";
@@ -62,6 +63,7 @@ export async function listWorkspaceApiKeys(workspaceId: string): Promise<ApiKeyV
 export async function revokeWorkspaceApiKey(input: { workspaceId: string; userId: string; keyId: string }): Promise<void> {
   const revoked = await revokeApiKey(input.workspaceId, input.keyId);
   if (!revoked) throw new NotFoundError("No API key with this id in the workspace.");
+  forgetApiKey(input.keyId);
   await createAuditEvent({
     workspaceId: input.workspaceId,
     actorUserId: input.userId,

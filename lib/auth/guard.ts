@@ -2,6 +2,7 @@ import { getPool } from "@/db";
 import { getMembership } from "@/db/queries/members";
 import { getEnv } from "@/lib/env";
 import { ForbiddenError, RateLimitedError, UnauthorizedError } from "@/lib/errors";
+import { takeKeyRequest, verifyCachedKey } from "./key-cache";
 import { roleAllows, type Permission } from "./permissions";
 import { getAuth } from "./server";
 
@@ -22,6 +23,16 @@ function keyAllows(granted: Record<string, string[]>, permission: Permission): b
   return Object.entries(permission).every(([resource, actions]) =>
     (actions ?? []).every((action) => granted[resource]?.includes(action) ?? false),
   );
+}
+
+// Reads (status polling) skip the plugin's verify-and-update per call: a cached verification and an in-process limiter.
+async function authorizeReadKey(key: string, permission: Permission): Promise<Caller> {
+  const entry = await verifyCachedKey(key);
+  if (!entry) throw new UnauthorizedError("The API key is missing, unknown or revoked.");
+  if (!keyAllows(entry.permissions, permission)) throw new ForbiddenError("This API key does not carry the permission this route needs.");
+  const waitMs = takeKeyRequest(entry);
+  if (waitMs !== null) throw new RateLimitedError("This API key sent too many requests.", Math.max(1, Math.ceil(waitMs / 1000)));
+  return { kind: "key", keyId: entry.id, workspaceId: entry.workspaceId, permissions: entry.permissions };
 }
 
 async function authorizeKey(key: string, permission: Permission): Promise<Caller> {
@@ -53,7 +64,7 @@ export async function authorizeRequest(
   const key = bearerKey(request);
   if (key) {
     if (!options.allowKey) throw new ForbiddenError("This route does not accept API keys; sign in instead.");
-    const caller = await authorizeKey(key, permission);
+    const caller = SAFE_METHODS.has(request.method) ? await authorizeReadKey(key, permission) : await authorizeKey(key, permission);
     if (options.workspaceId && options.workspaceId !== caller.workspaceId) throw new ForbiddenError();
     return caller;
   }

@@ -68,7 +68,9 @@ function freshness(stored: StoredAnalysis | null): AnalysisFreshness {
   return { analyzedAt: analyzedAt?.toISOString() ?? null, stale: countsNewer || planNewer };
 }
 
-function toStatusDay(campaign: CampaignDto, day: StoredAnalysisDay, issuesSoFar: StatusDay["health"]["issues"]): StatusDay {
+type PlannedCampaign = Pick<CampaignDto, "maxDays" | "plan">;
+
+function toStatusDay(campaign: PlannedCampaign, day: StoredAnalysisDay, issuesSoFar: StatusDay["health"]["issues"]): StatusDay {
   const detail = storedDetailSchema.parse(day.detail);
   const horizonReached =
     day.daysRun >= campaign.maxDays || Object.entries(campaign.plan.perArm).every(([arm, needed]) => (detail.arms[arm]?.n ?? 0) >= needed);
@@ -88,7 +90,7 @@ function toStatusDay(campaign: CampaignDto, day: StoredAnalysisDay, issuesSoFar:
   };
 }
 
-function seriesDays(campaign: CampaignDto, stored: StoredAnalysis | null): StatusDay[] {
+function seriesDays(campaign: PlannedCampaign, stored: StoredAnalysis | null): StatusDay[] {
   const issues: StatusDay["health"]["issues"] = [];
   return (stored?.days ?? []).map((day) => {
     issues.push(...storedDetailSchema.parse(day.detail).issues.map(({ rule, date, arm, message }) => ({ rule, date, arm, message })));
@@ -104,7 +106,14 @@ export async function campaignSeries(campaign: CampaignDto): Promise<CampaignSer
 
 /** The latest stored analysis day as `GET /api/v1/campaigns/:id/status` answers it ("collecting" and null numbers before the first analysis). */
 export async function campaignStatus(campaign: CampaignDto): Promise<CampaignStatus> {
-  const stored = await getStoredAnalysis(campaign.id);
+  return statusFromStored(campaign, await getStoredAnalysis(campaign.id));
+}
+
+/** The status answer from a stored analysis already read (its last day carries every issue so far). */
+export function statusFromStored(
+  campaign: Pick<CampaignDto, "id" | "name" | "status" | "maxDays" | "plan" | "planChangedAt" | "countsChangedAt" | "updatedAt">,
+  stored: StoredAnalysis | null,
+): CampaignStatus {
   const last = seriesDays(campaign, stored).at(-1);
   return {
     id: campaign.id,

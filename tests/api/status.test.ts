@@ -1,9 +1,9 @@
 import { eq } from "drizzle-orm";
-import { beforeAll, describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, inject, it } from "vitest";
 import { runRecompute } from "@/cron/recompute";
 import { getDb } from "@/db";
 import { listAnalysisDays } from "@/db/queries/analysis";
-import { campaigns } from "@/db/schema";
+import { apikeys, campaigns } from "@/db/schema";
 import type { CampaignSeries, CampaignStatus } from "@/lib/campaigns/campaign-status";
 import { createApiKey, createWorkspaceWithRoles, type TestWorkspace } from "../factories";
 import { countRow, createCampaign, dayFromToday, pushCounts } from "../factories-campaigns";
@@ -143,5 +143,76 @@ describe("GET /api/v1/campaigns/:id/status reads the worker's analysis", () => {
     expect((await status(campaign.id)).stale).toBe(true);
     await runRecompute({ wait: true, workspaceIds: [northwind.id] });
     expect((await status(campaign.id)).stale).toBe(false);
+  });
+});
+
+const readWithKey = (apiKey: string, reference: string) =>
+  fetch(new URL(`/api/v1/campaigns/${reference}/status`, inject("appUrl")), { headers: { authorization: `Bearer ${apiKey}` } });
+
+describe("GET /api/v1/campaigns/:id/status under polling", () => {
+  it("carries every stored day's issues (as the series' last day does) and answers by slug too", async () => {
+    const campaign = await startedCampaign();
+    // Twice the planned holdout share on every day: a sample-ratio mismatch the worker reports.
+    const skewed = (offset: number) => [countRow(campaign.slug, "holdout", dayFromToday(offset), 4_000, 200), countRow(campaign.slug, "treatment", dayFromToday(offset), 16_000, 900)];
+    expect((await pushCounts(key, [-6, -5, -4].flatMap(skewed))).status).toBe(200);
+    await runRecompute({ wait: true, workspaceIds: [northwind.id] });
+    const answered = await expectStatusIsStoredAnalysis(campaign.id);
+    const lastDay = (await series(campaign.id)).days.at(-1)!;
+    expect(answered.health.issues.length).toBeGreaterThan(0);
+    expect(answered.health.issues).toEqual(lastDay.health.issues);
+    expect(answered.fixed).toEqual(lastDay.fixed);
+    expect(await status(campaign.slug)).toEqual(answered);
+  });
+
+  it("answers 304 without a body while the status is unchanged, and a new ETag once it changes", async () => {
+    const campaign = await startedCampaign();
+    const first = await northwind.viewer.client.fetch(`/api/v1/campaigns/${campaign.id}/status`);
+    expect(first.status).toBe(200);
+    expect(first.headers.get("cache-control")).toBe("private, no-cache");
+    const etag = first.headers.get("etag");
+    expect(etag).toMatch(/^"[\w-]{20,}"$/);
+    const again = await northwind.viewer.client.fetch(`/api/v1/campaigns/${campaign.id}/status`, { headers: { "if-none-match": etag! } });
+    expect(again.status).toBe(304);
+    expect(await again.text()).toBe("");
+    expect(again.headers.get("etag")).toBe(etag);
+
+    expect((await pushCounts(key, dayRows(campaign.slug, -6, 1_000))).status).toBe(200);
+    const changed = await northwind.viewer.client.fetch(`/api/v1/campaigns/${campaign.id}/status`, { headers: { "if-none-match": etag! } });
+    expect(changed.status).toBe(200);
+    expect(changed.headers.get("etag")).not.toBe(etag);
+    expect(((await changed.json()) as CampaignStatus).stale).toBe(true);
+  });
+
+  it("refuses a read key at once after its revocation, though it was just verified", async () => {
+    const campaign = await startedCampaign();
+    const readKey = await createApiKey(northwind, ["read"]);
+    expect((await readWithKey(readKey.key, campaign.id)).status).toBe(200);
+    expect((await northwind.admin.client.fetch(`/api/v1/keys/${readKey.id}`, { method: "DELETE" })).status).toBe(204);
+    expect((await readWithKey(readKey.key, campaign.id)).status).toBe(401);
+  });
+
+  it("holds a read key to its rate limit (429 with Retry-After)", async () => {
+    const campaign = await startedCampaign();
+    const readKey = await createApiKey(northwind, ["read"]);
+    await getDb().update(apikeys).set({ rateLimitMax: 2 }).where(eq(apikeys.id, readKey.id));
+    const statuses: number[] = [];
+    let limited: Response | undefined;
+    for (let attempt = 0; attempt < 3; attempt++) {
+      const response = await readWithKey(readKey.key, campaign.id);
+      statuses.push(response.status);
+      if (response.status === 429) limited = response;
+    }
+    expect(statuses).toEqual([200, 200, 429]);
+    const retryAfter = Number(limited!.headers.get("retry-after"));
+    expect(Number.isInteger(retryAfter) && retryAfter >= 1 && retryAfter <= 60, String(retryAfter)).toBe(true);
+  });
+
+  it("refuses another workspace's key and a key of this workspace without the read permission", async () => {
+    const campaign = await startedCampaign();
+    const other = await createWorkspaceWithRoles("Northwind Rivals");
+    const otherKey = await createApiKey(other, ["read"]);
+    expect((await readWithKey(otherKey.key, campaign.id)).status).toBe(404);
+    expect((await readWithKey(key, campaign.id)).status).toBe(403);
+    expect((await readWithKey(`${key}x`, campaign.id)).status).toBe(401);
   });
 });
