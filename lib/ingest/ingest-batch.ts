@@ -17,7 +17,7 @@ export interface IngestRequest {
   userId?: string | null;
   source: "api" | "csv";
   idempotencyKey: string;
-  /** Rows already parsed by `ingestBodySchema`. */
+  /** Rows already parsed by `ingestBatchSchema`. */
   rows: IngestRow[];
 }
 

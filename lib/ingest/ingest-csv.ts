@@ -2,7 +2,7 @@ import { createHash } from "node:crypto";
 import type { CampaignDto } from "@/db/queries/campaigns";
 import { parseCountsCsv } from "@/lib/counts-csv";
 import { PayloadTooLargeError, ValidationError, type FieldProblem } from "@/lib/errors";
-import { ingestBodySchema, MAX_CSV_BYTES, MAX_INGEST_ROWS, type IngestRow } from "@/lib/validation/ingest";
+import { ingestBatchSchema, MAX_CSV_BYTES, MAX_INGEST_ROWS, type IngestRow } from "@/lib/validation/ingest";
 import { ingestBatch, type IngestOutcome } from "./ingest-batch";
 
 export { MAX_CSV_BYTES };
@@ -35,7 +35,7 @@ export async function ingestCsv(options: { workspaceId: string; userId: string; 
       : { campaign: campaign.id, arm: row.arm, date: row.date, units: row.n, sum: row.sum, sumSquares: row.sumSq },
   );
   const lineOf = (index: number | undefined) => (index === undefined ? undefined : parsed.rows[index]?.line);
-  const checked = ingestBodySchema.safeParse({ rows });
+  const checked = ingestBatchSchema.safeParse({ rows });
   if (!checked.success) {
     throw new ValidationError(
       "Some lines have problems; nothing was stored.",

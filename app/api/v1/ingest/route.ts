@@ -3,7 +3,7 @@ import { UnauthorizedError, ValidationError } from "@/lib/errors";
 import { readJson, toResponse } from "@/lib/http/problem";
 import { ingestBatch } from "@/lib/ingest/ingest-batch";
 import { rateLimitHeaders, RATE_LIMIT_POLICY } from "@/lib/ingest/rate-limit-headers";
-import { idempotencyKeySchema, ingestBodySchema, MAX_INGEST_BYTES } from "@/lib/validation/ingest";
+import { idempotencyKeySchema, ingestBatchSchema, MAX_INGEST_BYTES } from "@/lib/validation/ingest";
 
 export const dynamic = "force-dynamic";
 
@@ -32,7 +32,7 @@ export async function POST(request: Request) {
     if (!/^application\/json\b/i.test(type)) {
       throw new ValidationError("Send the batch as application/json.", [{ pointer: "/headers/content-type", message: `Expected application/json, got "${type || "nothing"}"` }]);
     }
-    const body = ingestBodySchema.parse(await readJson(request, MAX_INGEST_BYTES));
+    const body = ingestBatchSchema.parse(await readJson(request, MAX_INGEST_BYTES));
     const outcome = await ingestBatch({ workspaceId: caller.workspaceId, apiKeyId: caller.keyId, source: "api", idempotencyKey: keyCheck.data, rows: body.rows });
     return Response.json(outcome.body, {
       status: outcome.status,
