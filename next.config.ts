@@ -22,8 +22,9 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   // `npm test` runs tsc over the whole project as its own step; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },
-  // forbidden() renders app/forbidden.tsx for a page the member's role may not open.
-  experimental: { authInterrupts: true },
+  // forbidden() renders app/forbidden.tsx for a page the member's role may not open;
+  // optimizePackageImports: import only the modules a barrel import names (the dashboard and chart libraries).
+  experimental: { authInterrupts: true, optimizePackageImports: ["@tremor/react", "recharts", "swr"] },
   reactStrictMode: true,
   serverExternalPackages: ["pg", "pino", "smtp-server", "mailparser", "nodemailer"],
   async headers() {

@@ -3,7 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button, Card, CardHeader, Notice, Table, Td, Th } from "@/components/ui";
-import { parseCountsCsv, type CountsCsvResult } from "@/lib/counts-csv";
+import type { CountsCsvResult } from "@/lib/counts-csv";
 
 const PREVIEW_ROWS = 50;
 
@@ -70,11 +70,18 @@ export function CsvUpload({ campaignId, metric, limits }: { campaignId: string; 
       setTooLarge(`"${chosen.name}" is ${(chosen.size / 1_048_576).toFixed(1)} MB; the limit is ${MAX_CSV_BYTES / 1_048_576} MB (about ${MAX_INGEST_ROWS.toLocaleString("en-US")} rows). Split it into smaller files.`);
       return;
     }
+    // The CSV parser loads only once a file is chosen, while the file is read.
+    const parser = import("@/lib/counts-csv");
     const reader = new FileReader();
     reader.onprogress = (event) => event.lengthComputable && setReading(event.loaded / event.total);
-    reader.onload = () => {
-      setReading(null);
+    reader.onload = async () => {
       const text = String(reader.result ?? "");
+      const { parseCountsCsv } = await parser.catch(() => ({ parseCountsCsv: null }));
+      setReading(null);
+      if (!parseCountsCsv) {
+        setTooLarge("The CSV reader could not be loaded; reload the page and try again.");
+        return;
+      }
       const result = parseCountsCsv(text);
       if (result.rows.length > MAX_INGEST_ROWS) setTooLarge(`The file has ${result.rows.length.toLocaleString("en-US")} rows; at most ${MAX_INGEST_ROWS.toLocaleString("en-US")} go in one upload.`);
       setFile({ name: chosen.name, text });

@@ -1,8 +1,8 @@
 "use client";
 
-import { CartesianGrid, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatCount } from "@/components/dashboard/format";
 import { ChartFrame, LegendItem } from "./chart-frame";
+import { CountsPlot } from "./lazy-plots";
 
 export interface CountsDay {
   date: string;
@@ -67,18 +67,7 @@ export function CountsChart({
         })),
       }}
     >
-      <ResponsiveContainer width="100%" height="100%">
-        <LineChart data={data} margin={{ top: 8, right: 12, bottom: 4, left: 4 }} accessibilityLayer={false}>
-          <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-          <XAxis dataKey="date" tick={{ fill: "var(--axis)", fontSize: 12 }} stroke="var(--grid)" minTickGap={24} />
-          <YAxis tickFormatter={(value: number) => (value >= 1000 ? `${Math.round(value / 1000)}k` : String(value))} tick={{ fill: "var(--axis)", fontSize: 12 }} stroke="var(--grid)" width={52} />
-          <Tooltip formatter={(value, name) => [formatCount(value as number), String(name)]} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
-          {arms.map((arm) => {
-            const { colour, dash } = styleOf(arm);
-            return <Line key={arm.key} dataKey={arm.key} name={arm.name} stroke={`var(${colour})`} strokeDasharray={dash} strokeWidth={2} dot={false} isAnimationActive={false} />;
-          })}
-        </LineChart>
-      </ResponsiveContainer>
+      <CountsPlot data={data} lines={arms.map((arm) => ({ key: arm.key, name: arm.name, ...styleOf(arm) }))} />
     </ChartFrame>
   );
 }

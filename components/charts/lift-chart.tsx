@@ -1,8 +1,8 @@
 "use client";
 
-import { Area, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { StatusDay } from "@/lib/campaigns/campaign-status";
 import { ChartFrame, LegendItem } from "./chart-frame";
+import { LiftPlot } from "./lazy-plots";
 
 export interface LiftChartProps {
   campaignName: string;
@@ -12,8 +12,6 @@ export interface LiftChartProps {
   /** Display: a conversion lift in percentage points, a mean lift in its unit. */
   unit: { scale: number; suffix: string; digits: number };
 }
-
-const axisTick = { fill: "var(--axis)", fontSize: 12 };
 
 /** Lift over time: the always-valid confidence sequence as a filled band, the fixed-horizon interval as a dashed outline, with the zero and MDE lines. */
 export function LiftChart({ campaignName, days, minimumLift, unit }: LiftChartProps) {
@@ -66,25 +64,7 @@ export function LiftChart({ campaignName, days, minimumLift, unit }: LiftChartPr
         })),
       }}
     >
-      <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart data={data} margin={{ top: 8, right: 12, bottom: 4, left: 4 }} accessibilityLayer={false}>
-          <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-          <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" minTickGap={24} />
-          <YAxis tick={axisTick} stroke="var(--grid)" width={56} tickFormatter={(value: number) => value.toFixed(Math.min(unit.digits, 1))} />
-          <Tooltip
-            contentStyle={{ background: "var(--tooltip-bg, #fff)", borderColor: "var(--grid)", fontSize: 12 }}
-            formatter={(value, name) => [Array.isArray(value) ? `${text(value[0] as number)} to ${text(value[1] as number)}` : text(value as number), String(name)]}
-          />
-          <Area dataKey="band" name="Always-valid sequence" stroke="none" fill="var(--band)" fillOpacity={0.75} isAnimationActive={false} connectNulls />
-          <Line dataKey="ciLow" name="Fixed-horizon low" stroke="var(--outline)" strokeDasharray="4 3" dot={false} strokeWidth={1.3} isAnimationActive={false} />
-          <Line dataKey="ciHigh" name="Fixed-horizon high" stroke="var(--outline)" strokeDasharray="4 3" dot={false} strokeWidth={1.3} isAnimationActive={false} />
-          <Line dataKey="estimate" name="Estimated lift" stroke="var(--treatment)" strokeWidth={2.2} dot={false} isAnimationActive={false} />
-          <ReferenceLine y={0} stroke="var(--axis)" strokeDasharray="6 3" label={{ value: "0", position: "insideLeft", fill: "var(--axis)", fontSize: 11 }} />
-          {mde !== null ? (
-            <ReferenceLine y={mde} stroke="var(--alpha)" strokeDasharray="6 3" label={{ value: "Minimum worth having", position: "insideTopLeft", fill: "var(--alpha)", fontSize: 11 }} />
-          ) : null}
-        </ComposedChart>
-      </ResponsiveContainer>
+      <LiftPlot data={data} mde={mde} digits={unit.digits} text={text} />
     </ChartFrame>
   );
 }

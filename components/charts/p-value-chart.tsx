@@ -1,9 +1,9 @@
 "use client";
 
-import { CartesianGrid, ComposedChart, Line, ReferenceDot, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatP } from "@/components/dashboard/format";
 import type { StatusDay } from "@/lib/campaigns/campaign-status";
 import { ChartFrame, LegendItem } from "./chart-frame";
+import { PValuePlot } from "./lazy-plots";
 
 /** The log axis cannot show 0; smaller p-values are drawn at this floor (the table keeps the value). */
 const P_FLOOR = 1e-6;
@@ -47,27 +47,7 @@ export function PValueChart({ campaignName, days, alpha }: { campaignName: strin
         rows: days.map((day) => ({ shown: [day.date, formatP(day.sequential.p), formatP(day.fixed.p)], raw: [day.date, day.sequential.p, day.fixed.p] })),
       }}
     >
-      <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart data={data} margin={{ top: 8, right: 12, bottom: 4, left: 4 }} accessibilityLayer={false}>
-          <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-          <XAxis dataKey="date" tick={{ fill: "var(--axis)", fontSize: 12 }} stroke="var(--grid)" minTickGap={24} />
-          <YAxis
-            scale="log"
-            domain={[P_FLOOR, 1]}
-            allowDataOverflow
-            ticks={[1e-6, 1e-4, 0.01, 0.05, 1]}
-            tickFormatter={(value: number) => (value >= 0.01 ? String(value) : value.toExponential(0))}
-            tick={{ fill: "var(--axis)", fontSize: 12 }}
-            stroke="var(--grid)"
-            width={52}
-          />
-          <Tooltip formatter={(value, name) => [formatP(value as number), String(name)]} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
-          <ReferenceLine y={alpha} stroke="var(--alpha)" strokeDasharray="6 3" label={{ value: `α ${alpha}`, position: "insideBottomLeft", fill: "var(--alpha)", fontSize: 11 }} />
-          <Line dataKey="naive" name="Naive p" stroke="var(--holdout)" strokeDasharray="5 3" strokeWidth={1.8} dot={false} isAnimationActive={false} />
-          <Line dataKey="sequential" name="Always-valid p" stroke="var(--treatment)" strokeWidth={2.2} dot={false} isAnimationActive={false} />
-          {stop ? <ReferenceDot x={stop.date} y={floor(stop.fixed.p) ?? P_FLOOR} r={5} fill="var(--marker)" stroke="none" /> : null}
-        </ComposedChart>
-      </ResponsiveContainer>
+      <PValuePlot data={data} alpha={alpha} floor={P_FLOOR} stop={stop ? { date: stop.date, p: floor(stop.fixed.p) ?? P_FLOOR } : null} />
     </ChartFrame>
   );
 }

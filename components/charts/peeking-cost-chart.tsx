@@ -1,8 +1,8 @@
 "use client";
 
-import { CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatPercent } from "@/components/dashboard/format";
 import { ChartFrame, LegendItem } from "./chart-frame";
+import { PeekingCostPlot } from "./lazy-plots";
 
 export interface PeekingLook {
   date: string;
@@ -46,16 +46,7 @@ export function PeekingCostChart({ campaignName, looks, alpha }: { campaignName:
         rows: looks.map((look, index) => ({ shown: [look.date, index + 1, formatPercent(look.cost, 2)], raw: [look.date, index + 1, look.cost] })),
       }}
     >
-      <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart data={looks.map((look, index) => ({ look: index + 1, cost: look.cost }))} margin={{ top: 8, right: 12, bottom: 4, left: 4 }} accessibilityLayer={false}>
-          <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-          <XAxis dataKey="look" tick={{ fill: "var(--axis)", fontSize: 12 }} stroke="var(--grid)" label={{ value: "looks", position: "insideBottomRight", offset: -2, fill: "var(--axis)", fontSize: 11 }} />
-          <YAxis domain={[0, (max: number) => Math.max(0.1, Math.ceil(max * 20) / 20)]} tickFormatter={(value: number) => `${Math.round(value * 100)} %`} tick={{ fill: "var(--axis)", fontSize: 12 }} stroke="var(--grid)" width={48} />
-          <Tooltip formatter={(value) => [formatPercent(value as number, 2), "False-positive rate"]} labelFormatter={(label) => `Look ${label}`} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
-          <ReferenceLine y={alpha} stroke="var(--alpha)" strokeDasharray="6 3" />
-          <Line dataKey="cost" name="False-positive rate" stroke="var(--holdout)" strokeWidth={2} dot={false} isAnimationActive={false} />
-        </ComposedChart>
-      </ResponsiveContainer>
+      <PeekingCostPlot data={looks.map((look, index) => ({ look: index + 1, cost: look.cost }))} alpha={alpha} />
     </ChartFrame>
   );
 }

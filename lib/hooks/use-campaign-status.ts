@@ -3,11 +3,9 @@
 import useSWR from "swr";
 import type { CampaignStatus, StatusDay } from "@/lib/campaigns/campaign-status";
 
-/** How often campaign screens poll their status. */
-export const CAMPAIGN_POLL_MS = 30_000;
+import { CAMPAIGN_POLL_MS, campaignSeriesKey, campaignStatusKey } from "./campaign-keys";
 
-export const campaignStatusKey = (campaignId: string) => `/api/v1/campaigns/${campaignId}/status`;
-export const campaignSeriesKey = (campaignId: string) => `/api/v1/campaigns/${campaignId}/series`;
+export { CAMPAIGN_POLL_MS, campaignSeriesKey, campaignStatusKey };
 
 async function fetchJson<T>(url: string): Promise<T> {
   const response = await fetch(url, { headers: { accept: "application/json" }, cache: "no-store" });

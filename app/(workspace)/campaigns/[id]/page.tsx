@@ -2,6 +2,7 @@ import { DataTable } from "@/components/dashboard/data-table";
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { connection } from "next/server";
+import { SWRConfig } from "swr";
 import { CsvUpload } from "@/components/campaigns/csv-upload";
 import { LifecycleButtons } from "@/components/campaigns/lifecycle-buttons";
 import { RefreshAndSubscribe } from "@/components/campaigns/refresh-and-subscribe";
@@ -19,6 +20,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { campaignSeries, campaignStatus } from "@/lib/campaigns/campaign-status";
 import { LIFECYCLE_MOVES, STATUS_LABELS } from "@/lib/campaigns/lifecycle";
 import { HEALTH_DEFAULTS } from "@/lib/sequential";
+import { campaignSeriesKey, campaignStatusKey } from "@/lib/hooks/campaign-keys";
 import { MAX_CSV_BYTES, MAX_INGEST_ROWS } from "@/lib/validation/ingest";
 
 export const metadata: Metadata = { title: "Campaign · Peeksafe" };
@@ -141,31 +143,34 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
         </div>
       </Card>
 
-      <CampaignDashboard
-        campaign={{
-          id: campaign.id,
-          name: campaign.name,
-          alpha: campaign.alpha,
-          metricKind: campaign.metric.kind,
-          metricUnit: campaign.metric.unit,
-          maxDays: campaign.maxDays,
-          minimumLiftAbsolute: baseline === null ? null : Math.abs(baseline) * campaign.minimumLift,
-          arms: campaign.arms.map((arm) => ({ key: arm.key, name: arm.name, isHoldout: arm.isHoldout })),
-        }}
-        initialStatus={status}
-        initialSeries={series.days}
-        peekingLooks={peekingLooks}
-        counts={[...countsByDay.values()]}
-        health={{
-          srmMismatch: latest?.srmSequentialP !== null && latest?.srmSequentialP !== undefined && latest.srmSequentialP < HEALTH_DEFAULTS.srmSignificanceLevel,
-          srmGate: HEALTH_DEFAULTS.srmSignificanceLevel,
-          srmChiSquareP: latest?.srmP ?? null,
-          srmSequentialP: latest?.srmSequentialP ?? null,
-          revisedDays,
-          planChangedAt: campaign.planChangedAt,
-          analyzedAt: latest ? latest.computedAt.toISOString() : null,
-        }}
-      />
+      {/* The first status and series come with the page: the charts draw without a client fetch; SWR polls on from there. */}
+      <SWRConfig value={{ fallback: { [campaignStatusKey(campaign.id)]: status, [campaignSeriesKey(campaign.id)]: { id: campaign.id, name: campaign.name, days: series.days } } }}>
+        <CampaignDashboard
+          campaign={{
+            id: campaign.id,
+            name: campaign.name,
+            alpha: campaign.alpha,
+            metricKind: campaign.metric.kind,
+            metricUnit: campaign.metric.unit,
+            maxDays: campaign.maxDays,
+            minimumLiftAbsolute: baseline === null ? null : Math.abs(baseline) * campaign.minimumLift,
+            arms: campaign.arms.map((arm) => ({ key: arm.key, name: arm.name, isHoldout: arm.isHoldout })),
+          }}
+          initialStatus={status}
+          initialSeries={series.days}
+          peekingLooks={peekingLooks}
+          counts={[...countsByDay.values()]}
+          health={{
+            srmMismatch: latest?.srmSequentialP !== null && latest?.srmSequentialP !== undefined && latest.srmSequentialP < HEALTH_DEFAULTS.srmSignificanceLevel,
+            srmGate: HEALTH_DEFAULTS.srmSignificanceLevel,
+            srmChiSquareP: latest?.srmP ?? null,
+            srmSequentialP: latest?.srmSequentialP ?? null,
+            revisedDays,
+            planChangedAt: campaign.planChangedAt,
+            analyzedAt: latest ? latest.computedAt.toISOString() : null,
+          }}
+        />
+      </SWRConfig>
 
       <Card aria-labelledby="counts-title">
         <CardHeader id="counts-title" title="Daily counts" description="Each day's new units and outcomes per arm, newest first; a resent day is marked revised." />
