@@ -63,7 +63,8 @@ export function parseCountsCsv(text: string): CountsCsvResult {
   const firstLine = new Map<string, number>();
   for (let index = 1; index < records.length; index++) {
     const line = index + 1;
-    const cells = records[index].map((cell) => String(cell).trim());
+    // Only spaces are trimmed: a leading tab or CR is how a spreadsheet formula hides, and must be refused.
+    const cells = records[index].map((cell) => String(cell).replace(/^ +| +$/g, ""));
     if (cells.length === 1 && cells[0] === "") continue;
     if (cells.length !== columns) {
       errors.push({ line, reason: `expected ${columns} columns, got ${cells.length}` });
