@@ -143,5 +143,10 @@ async function readLimited(request: Request, maxBytes: number): Promise<string> 
     }
     chunks.push(value);
   }
-  return new TextDecoder("utf-8", { fatal: false }).decode(Buffer.concat(chunks));
+  try {
+    // Refuse broken UTF-8 rather than store U+FFFD in names: the sender's text was not what it meant.
+    return new TextDecoder("utf-8", { fatal: true }).decode(Buffer.concat(chunks));
+  } catch {
+    throw new DomainError("The body is not valid UTF-8.", 400, "Malformed JSON");
+  }
 }
