@@ -11,6 +11,7 @@ const envSchema = z.object({
   CRON_SECRET: z.string().min(16).optional(),
   SECURE_COOKIES: z.enum(["true", "false"]).optional(),
   AUTH_RATE_LIMIT: z.enum(["on", "off"]).default("on"),
+  INGEST_CONCURRENCY: z.coerce.number().int().min(1).max(64).default(4),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
 });
 

@@ -65,3 +65,13 @@ export class RateLimitedError extends DomainError {
     super(message, 429, "Too many requests");
   }
 }
+
+/** The service is saturated for now (a full queue): the client should retry the same request later. */
+export class BusyError extends DomainError {
+  constructor(
+    message: string,
+    readonly retryAfterSeconds: number,
+  ) {
+    super(message, 503, "Busy");
+  }
+}

@@ -1,5 +1,5 @@
 import { ZodError } from "zod";
-import { DomainError, RateLimitedError, type FieldProblem } from "@/lib/errors";
+import { BusyError, DomainError, RateLimitedError, type FieldProblem } from "@/lib/errors";
 
 /** RFC 9457 problem details. */
 export interface Problem {
@@ -48,7 +48,7 @@ export function toResponse(error: unknown, instance?: string): Response {
   }
   if (error instanceof DomainError) {
     const headers: Record<string, string> = {};
-    if (error instanceof RateLimitedError) headers["retry-after"] = String(error.retryAfterSeconds);
+    if (error instanceof RateLimitedError || error instanceof BusyError) headers["retry-after"] = String(error.retryAfterSeconds);
     return problemResponse(
       {
         type: `${PROBLEM_TYPE_BASE}${slug(error.title)}`,

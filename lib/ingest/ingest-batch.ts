@@ -9,7 +9,9 @@ import { campaigns, organizations } from "@/db/schema";
 import { ConflictError, ValidationError, type FieldProblem } from "@/lib/errors";
 import type { IngestResult, IngestRow } from "@/lib/validation/ingest";
 import { UUID_PATTERN } from "@/lib/validation/campaigns";
+import { getEnv } from "@/lib/env";
 import { todayIn } from "./today-in";
+import { WriteGate } from "./write-gate";
 
 export interface IngestRequest {
   workspaceId: string;
@@ -55,6 +57,17 @@ interface CampaignRef {
  */
 export async function ingestBatch(request: IngestRequest): Promise<IngestOutcome> {
   const hash = requestHash(request.source, request.rows);
+  return writeGate().run(() => storeBatch(request, hash));
+}
+
+let gate: WriteGate | undefined;
+
+function writeGate(): WriteGate {
+  gate ??= new WriteGate({ concurrency: getEnv().INGEST_CONCURRENCY, maxQueued: 200, maxWaitMs: 30_000 });
+  return gate;
+}
+
+async function storeBatch(request: IngestRequest, hash: string): Promise<IngestOutcome> {
   return getDb().transaction(async (tx) => {
     await tx.execute(sql`select ${lockKey(`ingest:${request.workspaceId}:${request.idempotencyKey}`)}`);
     const earlier = await getIngestBatch(tx, request.workspaceId, request.idempotencyKey);
