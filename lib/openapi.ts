@@ -137,6 +137,10 @@ export function openApiDocument(serverUrl: string) {
             "413": problem("The body is too large"),
             "422": problem("Bad rows; `errors` names every one"),
             "429": { description: "Too many requests from this key; see Retry-After", headers: { "Retry-After": { schema: { type: "integer" } } } },
+            "503": {
+              description: "Busy (too many batches in flight) or the database is unreachable; nothing was stored: retry after Retry-After with the same Idempotency-Key",
+              headers: { "Retry-After": { schema: { type: "integer" } } },
+            },
           },
         },
       },
