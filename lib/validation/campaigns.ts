@@ -127,6 +127,12 @@ export const listCampaignsQuerySchema = z.object({
 });
 
 /** A campaign is named in URLs and ingest rows by its id (uuid) or its slug. */
-export const campaignReferenceSchema = z.string().trim().min(1).max(140);
+export const campaignReferenceSchema = z
+  .string()
+  .trim()
+  .min(1)
+  .max(140)
+  // PostgreSQL refuses a NUL in text with an error, not "no such row": stop control characters here.
+  .regex(/^[^\u0000-\u001f\u007f]*$/, "A campaign id or slug has no control characters");
 
 export const UUID_PATTERN = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
