@@ -15,8 +15,8 @@ function log(message: string): void {
 }
 
 /**
- * A throwaway world for one bench run (see `startThrowawayStack`), built into `.next-bench` when
- * that folder has no build yet (or with `--rebuild`).
+ * A throwaway world for one bench run (see `startThrowawayStack`), built into `.next-bench` when a
+ * source is newer than that build (or with `--rebuild`).
  */
 export async function startBenchStack(options: { app: boolean }): Promise<BenchStack> {
   return startThrowawayStack({ app: options.app, distDir: BENCH_DIST_DIR, prefix: "peeksafe-bench-", rebuild: process.argv.includes("--rebuild"), log });

@@ -15,8 +15,8 @@ function newestMtime(target: string): number {
 }
 
 /** True when `.next` is missing or older than any source the build reads. */
-export function buildIsStale(root = process.cwd()): boolean {
-  const buildId = path.join(root, process.env.NEXT_DIST_DIR ?? ".next", "BUILD_ID");
+export function buildIsStale(root = process.cwd(), distDir = process.env.NEXT_DIST_DIR ?? ".next"): boolean {
+  const buildId = path.join(root, distDir, "BUILD_ID");
   if (!existsSync(buildId)) return true;
   const built = statSync(buildId).mtimeMs;
   const sources = [...SOURCE_FOLDERS, ...SOURCE_FILES].map((name) => newestMtime(path.join(root, name)));

@@ -1,7 +1,7 @@
 import { randomBytes } from "node:crypto";
-import { existsSync, rmSync } from "node:fs";
+import { rmSync } from "node:fs";
 import path from "node:path";
-import { buildApp, startApp, type RunningApp } from "./app-server";
+import { buildApp, buildIsStale, startApp, type RunningApp } from "./app-server";
 import { startMailCatcher, type MailCatcher } from "./mail-catcher";
 import { migrateDatabase } from "./migrate";
 import { freePort, startCluster, type RunningCluster } from "./postgres-cluster";
@@ -34,8 +34,8 @@ export interface ThrowawayStack {
 
 /**
  * A throwaway world for one long run (bench or soak): PostgreSQL in /dev/shm, migrated, the mail
- * catcher and, with `app`, the production app on a loopback port. The build is made only when
- * `distDir` has none (or with `rebuild`): other engineers edit the tree all the time.
+ * catcher and, with `app`, the production app on a loopback port, built into `distDir` when a source is
+ * newer than its build (or with `rebuild`), so a run never measures yesterday's code.
  */
 export async function startThrowawayStack(options: ThrowawayStackOptions): Promise<ThrowawayStack> {
   const log = options.log ?? (() => {});
@@ -71,7 +71,7 @@ export async function startThrowawayStack(options: ThrowawayStackOptions): Promi
     };
     process.env.DATABASE_URL = cluster.url;
     if (options.app) {
-      if (options.rebuild || !existsSync(path.resolve(options.distDir, "BUILD_ID"))) {
+      if (options.rebuild || buildIsStale(process.cwd(), options.distDir)) {
         log(`building the app into ${options.distDir}`);
         buildApp(env);
       }

@@ -8,7 +8,7 @@
  *   d. the app SIGKILLed and started again on the same port under a running worker.
  * Prints pass/fail with figures per scenario, writes tests/soak/results/faults.json, exits non-zero
  * on any failure and stops everything it started (also on Ctrl-C). The build folder is
- * NEXT_DIST_DIR (default .next-faults), built only when it has none.
+ * NEXT_DIST_DIR (default .next-faults), built when a source is newer than it.
  */
 import { mkdirSync, writeFileSync } from "node:fs";
 import path from "node:path";

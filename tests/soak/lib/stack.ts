@@ -11,7 +11,7 @@ function log(message: string): void {
 
 /**
  * A throwaway world for one soak run (see `startThrowawayStack`): PostgreSQL in /dev/shm, the mail
- * catcher and, with `app`, the production app built into `.next-soak` when that folder has none (or
+ * catcher and, with `app`, the production app built into `.next-soak` when a source is newer than that build (or
  * with `--rebuild`). Ctrl-C, SIGTERM and an uncaught error stop it all before the process ends.
  */
 export async function startSoakStack(options: { app: boolean; fast?: boolean }): Promise<SoakStack> {
