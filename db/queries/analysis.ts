@@ -4,6 +4,23 @@ import { analysisDays, campaigns, organizations } from "@/db/schema";
 import type { CallName } from "@/db/schema";
 
 /** A transaction of the shared database. */
+
+/** The figures of one analysed day, as the series and the status read them. */
+export const analysisDayColumns = {
+  day: analysisDays.day,
+  daysRun: analysisDays.daysRun,
+  call: analysisDays.call,
+  liftAbsolute: analysisDays.liftAbsolute,
+  liftRelative: analysisDays.liftRelative,
+  sequenceLow: analysisDays.sequenceLow,
+  sequenceHigh: analysisDays.sequenceHigh,
+  intervalLow: analysisDays.intervalLow,
+  intervalHigh: analysisDays.intervalHigh,
+  fixedP: analysisDays.fixedP,
+  sequentialP: analysisDays.sequentialP,
+  srmSequentialP: analysisDays.srmSequentialP,
+};
+
 export type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
 
 /** Statuses whose campaigns are analysed (a draft has no data yet, an archived one is frozen). */
@@ -132,18 +149,7 @@ export async function getStoredAnalysis(campaignId: string): Promise<StoredAnaly
       if (!campaign) return null;
       const days = await tx
         .select({
-          day: analysisDays.day,
-          daysRun: analysisDays.daysRun,
-          call: analysisDays.call,
-          liftAbsolute: analysisDays.liftAbsolute,
-          liftRelative: analysisDays.liftRelative,
-          sequenceLow: analysisDays.sequenceLow,
-          sequenceHigh: analysisDays.sequenceHigh,
-          intervalLow: analysisDays.intervalLow,
-          intervalHigh: analysisDays.intervalHigh,
-          fixedP: analysisDays.fixedP,
-          sequentialP: analysisDays.sequentialP,
-          srmSequentialP: analysisDays.srmSequentialP,
+          ...analysisDayColumns,
           detail: analysisDays.detail,
         })
         .from(analysisDays)

@@ -13,7 +13,8 @@ export interface ApiKeySummary {
   lastRequest: Date | null;
 }
 
-function parsePermissions(value: string | null): Record<string, string[]> {
+/** The permissions column of a key (JSON text); a malformed or empty one grants nothing. */
+export function parsePermissions(value: string | null): Record<string, string[]> {
   if (!value) return {};
   try {
     const parsed: unknown = JSON.parse(value);

@@ -1,7 +1,7 @@
 import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db";
 import { analysisDays, campaigns } from "@/db/schema";
-import type { StoredAnalysis } from "./analysis";
+import { analysisDayColumns, type StoredAnalysis } from "./analysis";
 import type { CampaignDto } from "./campaigns";
 
 /** The campaign fields the status answer reads. */
@@ -33,18 +33,7 @@ export async function getStatusSource(workspaceId: string, reference: string): P
       countsChangedAt: campaigns.countsChangedAt,
       updatedAt: campaigns.updatedAt,
       analyzedAt: campaigns.analyzedAt,
-      day: analysisDays.day,
-      daysRun: analysisDays.daysRun,
-      call: analysisDays.call,
-      liftAbsolute: analysisDays.liftAbsolute,
-      liftRelative: analysisDays.liftRelative,
-      sequenceLow: analysisDays.sequenceLow,
-      sequenceHigh: analysisDays.sequenceHigh,
-      intervalLow: analysisDays.intervalLow,
-      intervalHigh: analysisDays.intervalHigh,
-      fixedP: analysisDays.fixedP,
-      sequentialP: analysisDays.sequentialP,
-      srmSequentialP: analysisDays.srmSequentialP,
+      ...analysisDayColumns,
       arms: sql<unknown>`${analysisDays.detail} -> 'arms'`,
       issues: sql<unknown[]>`(select coalesce(jsonb_agg(issue order by d.day, position), '[]'::jsonb)
         from ${analysisDays} d, jsonb_array_elements(d.detail -> 'issues') with ordinality as found(issue, position)

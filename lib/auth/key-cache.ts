@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db";
+import { parsePermissions } from "@/db/queries/api-keys";
 import { apikeys } from "@/db/schema";
 
 /** A verified API key as the read path keeps it in memory: never the key itself, only its hash as the map key. */
@@ -34,16 +35,6 @@ function state(): KeyCacheState {
 /** The stored form of a key: SHA-256, base64url without padding (the api-key plugin's own hashing). */
 export function hashApiKey(key: string): string {
   return createHash("sha256").update(key).digest("base64url");
-}
-
-function parsePermissions(value: string | null): Record<string, string[]> {
-  if (!value) return {};
-  try {
-    const parsed: unknown = JSON.parse(value);
-    return parsed && typeof parsed === "object" ? (parsed as Record<string, string[]>) : {};
-  } catch {
-    return {};
-  }
 }
 
 async function loadKey(hash: string, now: number): Promise<CachedApiKey | null> {

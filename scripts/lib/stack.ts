@@ -18,6 +18,8 @@ export interface ThrowawayStackOptions {
   prefix: string;
   /** Build even when `distDir` already holds a build. */
   rebuild?: boolean;
+  /** Serve `distDir` as it is, never building (tests: the run's global setup built it; a build under a running app breaks it). */
+  reuseBuild?: boolean;
   log?: (message: string) => void;
 }
 
@@ -30,6 +32,20 @@ export interface ThrowawayStack {
   env: NodeJS.ProcessEnv;
   /** Stops what was started and removes the scratch folder; safe to call twice. */
   stop(): Promise<void>;
+}
+
+/** The app's environment on a throwaway stack: a fresh signing secret, loopback addresses, quiet logs, no sign-in limits. */
+export function throwawayEnv(parts: { databaseUrl: string; appPort: number; mail: { smtpPort: number; httpPort: number } }): NodeJS.ProcessEnv {
+  return {
+    ...process.env,
+    DATABASE_URL: parts.databaseUrl,
+    BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
+    APP_URL: `http://127.0.0.1:${parts.appPort}`,
+    SMTP_URL: `smtp://127.0.0.1:${parts.mail.smtpPort}`,
+    MAIL_CATCHER_URL: `http://127.0.0.1:${parts.mail.httpPort}`,
+    AUTH_RATE_LIMIT: "off",
+    LOG_LEVEL: "warn",
+  };
 }
 
 /**
@@ -58,20 +74,10 @@ export async function startThrowawayStack(options: ThrowawayStackOptions): Promi
     const mail = await startMailCatcher({ smtpPort: await freePort(), httpPort: await freePort() });
     started.mail = mail;
     const appPort = await freePort();
-    const env: NodeJS.ProcessEnv = {
-      ...process.env,
-      NEXT_DIST_DIR: options.distDir,
-      DATABASE_URL: cluster.url,
-      BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
-      APP_URL: `http://127.0.0.1:${appPort}`,
-      SMTP_URL: `smtp://127.0.0.1:${mail.smtpPort}`,
-      MAIL_CATCHER_URL: `http://127.0.0.1:${mail.httpPort}`,
-      AUTH_RATE_LIMIT: "off",
-      LOG_LEVEL: "warn",
-    };
+    const env: NodeJS.ProcessEnv = { ...throwawayEnv({ databaseUrl: cluster.url, appPort, mail }), NEXT_DIST_DIR: options.distDir };
     process.env.DATABASE_URL = cluster.url;
     if (options.app) {
-      if (options.rebuild || buildIsStale(process.cwd(), options.distDir)) {
+      if (options.rebuild || (!options.reuseBuild && buildIsStale(process.cwd(), options.distDir))) {
         log(`building the app into ${options.distDir}`);
         buildApp(env);
       }

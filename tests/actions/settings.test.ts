@@ -1,11 +1,10 @@
-import { readFileSync } from "node:fs";
-import path from "node:path";
 import { and, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, test } from "vitest";
 import { getDb } from "@/db";
 import { apikeys, invitations, members, organizations } from "@/db/schema";
 import { createUser, createWorkspace, createWorkspaceWithRoles, uniqueEmail, type TestUser, type TestWorkspace } from "../factories";
 import { TestClient } from "../helpers/http-client";
+import { actionId, parseFlightResult, type ActionResult } from "../helpers/server-actions";
 
 // Server actions are called the way the browser calls them: a POST to the page with the
 // action's id in the Next-Action header and the arguments as a JSON array (React's reply encoding).
@@ -20,20 +19,8 @@ const ACTIONS = [
 ] as const;
 type ActionName = (typeof ACTIONS)[number];
 
-type ActionResult = { ok: true; data: unknown } | { ok: false; error: string; fieldErrors?: Record<string, string[]> };
-
 function loadActionIds(): Record<ActionName, string> {
-  const distDir = process.env.NEXT_DIST_DIR ?? ".next";
-  const manifest = JSON.parse(readFileSync(path.resolve(distDir, "server/server-reference-manifest.json"), "utf8")) as {
-    node: Record<string, { exportedName?: string; filename?: string }>;
-  };
-  const ids: Partial<Record<ActionName, string>> = {};
-  for (const [id, entry] of Object.entries(manifest.node)) {
-    const name = entry.exportedName as ActionName | undefined;
-    if (name && ACTIONS.includes(name) && (entry.filename ?? "").includes("settings/actions")) ids[name] = id;
-  }
-  for (const name of ACTIONS) if (!ids[name]) throw new Error(`no id for ${name} in the server-reference manifest`);
-  return ids as Record<ActionName, string>;
+  return Object.fromEntries(ACTIONS.map((name) => [name, actionId(name, "settings/actions")])) as Record<ActionName, string>;
 }
 
 let actionIds: Record<ActionName, string>;
@@ -44,21 +31,6 @@ interface ActionResponse {
   result: ActionResult | null;
 }
 
-/** Parses the action's return value out of the RSC flight answer (row 0 points at it with "$@<row>"). */
-function parseFlight(text: string): ActionResult | null {
-  const rows = new Map<string, string>();
-  for (const line of text.split("\n")) {
-    const match = /^([0-9a-f]+):(.*)$/.exec(line);
-    if (match) rows.set(match[1], match[2]);
-  }
-  const head = rows.get("0");
-  if (!head) return null;
-  const root = JSON.parse(head) as { a?: unknown };
-  let value = root.a;
-  if (typeof value === "string" && value.startsWith("$@")) value = JSON.parse(rows.get(value.slice(2)) ?? "null");
-  return (value ?? null) as ActionResult | null;
-}
-
 async function callAction(client: TestClient, name: ActionName, input: unknown): Promise<ActionResponse> {
   const response = await client.fetch("/settings", {
     method: "POST",
@@ -67,7 +39,7 @@ async function callAction(client: TestClient, name: ActionName, input: unknown):
   });
   const redirect = response.headers.get("x-action-redirect") ?? response.headers.get("location");
   const text = await response.text();
-  const result = response.headers.get("content-type")?.includes("text/x-component") ? parseFlight(text) : null;
+  const result = response.headers.get("content-type")?.includes("text/x-component") ? parseFlightResult(text) : null;
   return { status: response.status, redirect, result };
 }
 

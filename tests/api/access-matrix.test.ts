@@ -56,6 +56,8 @@ const ALL_ROLES: CallerName[] = ["admin", "marketer", "lead", "viewer"];
 const id = (fixtures: Fixtures) => fixtures.campaign.id;
 
 const MATRIX: Record<string, Cell[]> = {
+  // Addresses no route answers: the same problem 404 for everybody, whatever the credential.
+  "[...path]": (["DELETE", "GET", "PATCH", "POST", "PUT"] as const).map((method) => ({ method, path: () => "/api/v1/no-such-route", expected: everyone(404) })),
   "auth/[...all]": [
     { method: "GET", path: () => "/api/auth/get-session", expected: everyone("pass") },
     // better-auth's own API-key endpoint must not be a way around /api/v1/keys: only this workspace's admin creates its keys.

@@ -1,5 +1,3 @@
-import { readFileSync } from "node:fs";
-import path from "node:path";
 import { beforeAll, describe, expect, test } from "vitest";
 import { runMailer } from "@/cron/mailer";
 import { recomputeCampaign } from "@/cron/recompute";
@@ -8,47 +6,22 @@ import { listCampaignAlerts, listDeliveries } from "@/db/queries/alerts";
 import { createUser, createWorkspace, createWorkspaceWithRoles, uniqueEmail, type TestUser, type TestWorkspace } from "../factories";
 import { TestClient } from "../helpers/http-client";
 import { listMail } from "../helpers/mail";
+import { actionId, parseFlightResult, type ActionResult as ServerActionResult } from "../helpers/server-actions";
 import { conversionCounts, createWorkerCampaign, putCounts } from "../helpers/worker-fixtures";
 
-type ActionResult = { ok: true; data: Record<string, unknown> } | { ok: false; error: string; fieldErrors?: Record<string, string[]> };
+type ActionResult = ServerActionResult<Record<string, unknown>>;
 
-// The server action is called the way the browser calls it (as in tests/actions/settings.test.ts):
-// a POST to the page with the action's id in Next-Action and the arguments as a JSON array.
-function loadActionId(): string {
-  const distDir = process.env.NEXT_DIST_DIR ?? ".next";
-  const manifest = JSON.parse(readFileSync(path.resolve(distDir, "server/server-reference-manifest.json"), "utf8")) as {
-    node: Record<string, { exportedName?: string; filename?: string }>;
-  };
-  const found = Object.entries(manifest.node).find(([, entry]) => entry.exportedName === "updateAlertRuleAction" && (entry.filename ?? "").includes("settings/alerts/actions"));
-  if (!found) throw new Error("no id for updateAlertRuleAction in the server-reference manifest");
-  return found[0];
-}
-
-/** Parses the action's return value out of the RSC flight answer (row 0 points at it with "$@<row>"). */
-function parseFlight(text: string): ActionResult | null {
-  const rows = new Map<string, string>();
-  for (const line of text.split("\n")) {
-    const match = /^([0-9a-f]+):(.*)$/.exec(line);
-    if (match) rows.set(match[1], match[2]);
-  }
-  const head = rows.get("0");
-  if (!head) return null;
-  let value = (JSON.parse(head) as { a?: unknown }).a;
-  if (typeof value === "string" && value.startsWith("$@")) value = JSON.parse(rows.get(value.slice(2)) ?? "null");
-  return (value ?? null) as ActionResult | null;
-}
-
-let actionId: string;
+let updateRulesId: string;
 
 async function saveRules(client: TestClient, input: unknown): Promise<{ redirect: string | null; result: ActionResult | null }> {
   const response = await client.fetch("/settings/alerts", {
     method: "POST",
-    headers: { "next-action": actionId, "content-type": "text/plain;charset=UTF-8", accept: "text/x-component" },
+    headers: { "next-action": updateRulesId, "content-type": "text/plain;charset=UTF-8", accept: "text/x-component" },
     body: JSON.stringify([input]),
   });
   const redirect = response.headers.get("x-action-redirect") ?? response.headers.get("location");
   const text = await response.text();
-  return { redirect, result: response.headers.get("content-type")?.includes("text/x-component") ? parseFlight(text) : null };
+  return { redirect, result: response.headers.get("content-type")?.includes("text/x-component") ? parseFlightResult<Record<string, unknown>>(text) : null };
 }
 
 const valid = {
@@ -63,7 +36,7 @@ let otherAdmin: TestUser;
 let otherWorkspaceId: string;
 
 beforeAll(async () => {
-  actionId = loadActionId();
+  updateRulesId = actionId("updateAlertRuleAction", "settings/alerts/actions");
   team = await createWorkspaceWithRoles("Northwind Outfitters");
   otherAdmin = await createUser({ email: uniqueEmail("other-admin") });
   otherWorkspaceId = await createWorkspace(otherAdmin, "Northwind Rentals");

@@ -9,7 +9,7 @@ let workspace: BenchWorkspace;
 const sharedDatabaseUrl = process.env.DATABASE_URL;
 
 beforeAll(async () => {
-  faults = await startFaultStack({ distDir: process.env.NEXT_DIST_DIR ?? ".next" });
+  faults = await startFaultStack({ distDir: process.env.NEXT_DIST_DIR ?? ".next", reuseBuild: true });
   workspace = await createBenchWorkspace(faults.appUrl, faults.databaseUrl, 1);
 }, 120_000);
 afterAll(async () => {

@@ -10,7 +10,7 @@ const sharedDatabaseUrl = process.env.DATABASE_URL;
 const PIPELINES = 5;
 
 beforeAll(async () => {
-  faults = await startFaultStack({ distDir: process.env.NEXT_DIST_DIR ?? ".next" });
+  faults = await startFaultStack({ distDir: process.env.NEXT_DIST_DIR ?? ".next", reuseBuild: true });
   workspace = await createBenchWorkspace(faults.appUrl, faults.databaseUrl, PIPELINES);
 }, 120_000);
 afterAll(async () => {

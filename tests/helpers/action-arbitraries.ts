@@ -1,10 +1,9 @@
 import assert from "node:assert/strict";
-import { readFileSync } from "node:fs";
-import path from "node:path";
 import fc from "fast-check";
 import type { CampaignDto } from "@/db/queries/campaigns";
 import { createWorkspaceWithRoles, type TestWorkspace } from "../factories";
 import { createCampaign, dayFromToday } from "../factories-campaigns";
+import { actionId, parseFlightResult, type ActionResult } from "./server-actions";
 
 // Generated bad arguments for every server action in app/**/actions.ts (issue 7, "Bad input"), called as
 // the browser calls them, by the workspace admin (allowed to call each). Shared by
@@ -23,23 +22,13 @@ export const ACTIONS = {
   createCampaignAction: { page: "/campaigns", file: "campaigns/actions", arity: 1 },
   moveCampaignAction: { page: "/campaigns", file: "campaigns/actions", arity: 2 },
 } as const;
+export type { ActionResult };
 export type ActionName = keyof typeof ACTIONS;
 export const ACTION_NAMES = Object.keys(ACTIONS) as ActionName[];
 
-export type ActionResult = { ok: true; data: unknown } | { ok: false; error: string; fieldErrors?: Record<string, string[] | undefined> };
-
 /** The action ids of the build in `distDir`, from its server-reference manifest. */
 export function loadActionIds(distDir = process.env.NEXT_DIST_DIR ?? ".next"): Record<ActionName, string> {
-  const manifest = JSON.parse(readFileSync(path.resolve(distDir, "server/server-reference-manifest.json"), "utf8")) as {
-    node: Record<string, { exportedName?: string; filename?: string }>;
-  };
-  const ids: Partial<Record<ActionName, string>> = {};
-  for (const [id, entry] of Object.entries(manifest.node)) {
-    const name = entry.exportedName as ActionName | undefined;
-    if (name && name in ACTIONS && (entry.filename ?? "").includes(`${ACTIONS[name].file}.`)) ids[name] = id;
-  }
-  for (const name of ACTION_NAMES) if (!ids[name]) throw new Error(`no id for ${name} in the server-reference manifest`);
-  return ids as Record<ActionName, string>;
+  return Object.fromEntries(ACTION_NAMES.map((name) => [name, actionId(name, `${ACTIONS[name].file}.`, distDir)])) as Record<ActionName, string>;
 }
 
 export interface ActionFuzzWorld {
@@ -128,20 +117,6 @@ export function actionArbitraries(world: ActionFuzzWorld) {
     return fc.oneof({ arbitrary: json, weight: 3 }, { arbitrary: form, weight: 1 });
   });
   return { actionCase: fc.oneof(...perAction) };
-}
-
-/** Parses the action's return value out of the RSC flight answer (row 0 points at it with "$@<row>"). */
-export function parseFlightResult(text: string): ActionResult | null {
-  const rows = new Map<string, string>();
-  for (const line of text.split("\n")) {
-    const match = /^([0-9a-f]+):(.*)$/.exec(line);
-    if (match) rows.set(match[1], match[2]);
-  }
-  const head = rows.get("0");
-  if (!head) return null;
-  let value = (JSON.parse(head) as { a?: unknown }).a;
-  if (typeof value === "string" && value.startsWith("$@")) value = JSON.parse(rows.get(value.slice(2)) ?? "null");
-  return (value ?? null) as ActionResult | null;
 }
 
 /** Posts one generated call as the admin: a JSON argument list, or one FormData argument (`$K1` plus `1_<field>` parts). */

@@ -1,4 +1,3 @@
-import { randomBytes } from "node:crypto";
 import { rmSync } from "node:fs";
 import path from "node:path";
 import type { TestProject } from "vitest/node";
@@ -7,6 +6,7 @@ import { startMailCatcher } from "../../scripts/lib/mail-catcher";
 import { migrateDatabase } from "../../scripts/lib/migrate";
 import { freePort, startCluster } from "../../scripts/lib/postgres-cluster";
 import { createScratchFolder, reapScratchFolders } from "../../scripts/lib/scratch-folders";
+import { throwawayEnv } from "../../scripts/lib/stack";
 
 declare module "vitest" {
   export interface ProvidedContext {
@@ -30,16 +30,7 @@ export default async function setup(project: TestProject) {
 
   const mail = await startMailCatcher({ smtpPort: await freePort(), httpPort: await freePort() });
   const appPort = await freePort();
-  const env: NodeJS.ProcessEnv = {
-    ...process.env,
-    DATABASE_URL: cluster.url,
-    BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
-    APP_URL: `http://127.0.0.1:${appPort}`,
-    SMTP_URL: `smtp://127.0.0.1:${mail.smtpPort}`,
-    MAIL_CATCHER_URL: `http://127.0.0.1:${mail.httpPort}`,
-    AUTH_RATE_LIMIT: "off",
-    LOG_LEVEL: "warn",
-  };
+  const env = throwawayEnv({ databaseUrl: cluster.url, appPort, mail });
   if (buildIsStale()) buildApp(env);
   const app = await startApp({ port: appPort, env, quiet: true });
 

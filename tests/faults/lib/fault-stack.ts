@@ -36,8 +36,8 @@ export interface WorkerProcess {
   stderr(): string;
 }
 
-export async function startFaultStack(options: { distDir: string; log?: (message: string) => void }): Promise<FaultStack> {
-  const stack = await startThrowawayStack({ app: true, fast: false, distDir: options.distDir, prefix: "peeksafe-faults-", log: options.log });
+export async function startFaultStack(options: { distDir: string; reuseBuild?: boolean; log?: (message: string) => void }): Promise<FaultStack> {
+  const stack = await startThrowawayStack({ app: true, fast: false, distDir: options.distDir, reuseBuild: options.reuseBuild, prefix: "peeksafe-faults-", log: options.log });
   const appPort = Number(new URL(stack.appUrl!).port);
   const mailPorts = { smtpPort: stack.mail.smtpPort, httpPort: stack.mail.httpPort };
   let app = stack.app!;
