@@ -9,7 +9,14 @@ export const ROLE_DESCRIPTIONS: Record<(typeof ROLE_NAMES)[number], string> = {
 };
 
 const role = z.enum(ROLE_NAMES, { message: "Choose one of admin, marketer, lead or viewer" });
-const id = z.string().trim().min(1, "Missing id").max(100, "Not a valid id");
+/** A better-auth record id (member, invitation, API key); PostgreSQL answers a NUL in text with an error, so control characters stop here. */
+export const recordIdSchema = z
+  .string()
+  .trim()
+  .min(1, "Missing id")
+  .max(100, "Not a valid id")
+  .regex(/^[^\u0000-\u001f\u007f]*$/, "Not a valid id");
+const id = recordIdSchema;
 
 export const inviteMemberSchema = z.object({
   email: z.string().trim().toLowerCase().min(1, "Enter an e-mail address").email("Enter a valid e-mail address").max(254),

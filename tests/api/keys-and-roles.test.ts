@@ -106,6 +106,14 @@ describe("roles matrix over the key routes", () => {
     const still = await new TestClient().json("/api/v1/whoami", { headers: { authorization: `Bearer ${ours.key}` } });
     expect(still.status).toBe(200);
   });
+
+  it("answers a key id with a control character (a NUL once reached PostgreSQL and answered 500) with a 422 problem", async () => {
+    for (const id of ["%00", "key%01", "%7F"]) {
+      const response = await north.admin.client.fetch(`/api/v1/keys/${id}`, { method: "DELETE" });
+      expect(response.status, id).toBe(422);
+      expect(response.headers.get("content-type")).toMatch(/^application\/problem\+json/);
+    }
+  });
 });
 
 describe("roles matrix over workspace membership (better-auth organization routes)", () => {

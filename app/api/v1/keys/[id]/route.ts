@@ -3,10 +3,11 @@ import { revokeWorkspaceApiKey } from "@/lib/api-keys";
 import { authorizeRequest } from "@/lib/auth/guard";
 import { UnauthorizedError } from "@/lib/errors";
 import { toResponse } from "@/lib/http/problem";
+import { recordIdSchema } from "@/lib/validation/members";
 
 export const dynamic = "force-dynamic";
 
-const paramsSchema = z.object({ id: z.string().min(1).max(128) });
+const paramsSchema = z.object({ id: recordIdSchema });
 
 export async function DELETE(request: Request, context: { params: Promise<{ id: string }> }) {
   try {
