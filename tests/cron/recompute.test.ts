@@ -173,7 +173,7 @@ describe("the recompute worker", () => {
     });
     await putCounts(threeArm, threeArmRows);
 
-    const summary = await runRecompute({ wait: true });
+    const summary = await runRecompute({ wait: true, workspaceIds: [workspaceId] });
     expect(summary.ran).toBe(true);
     const ids = summary.campaigns.filter((c) => c.recomputed).map((c) => c.campaignId);
     expect(ids).toEqual(expect.arrayContaining([twoArm.id, mean.id, threeArm.id]));
@@ -195,7 +195,7 @@ describe("the recompute worker", () => {
     expect(first.call).toBe("lift");
     const before = await listAnalysisDays(campaign.id);
 
-    const again = await runRecompute({ wait: true });
+    const again = await runRecompute({ wait: true, workspaceIds: [workspaceId] });
     expect(again.campaigns.find((c) => c.campaignId === campaign.id)).toBeUndefined();
     const nightly = await runRecompute({ all: true, workspaceIds: [workspaceId], wait: true });
     expect(nightly.campaigns).toEqual([expect.objectContaining({ campaignId: campaign.id, recomputed: false })]);
@@ -242,7 +242,7 @@ describe("the recompute worker", () => {
     const [{ analysisInputsHash: hashKept }] = await getDb().select().from(campaigns).where(eq(campaigns.id, campaign.id));
     expect(hashKept).toBe(hashBefore);
 
-    const next = await runRecompute({ wait: true });
+    const next = await runRecompute({ wait: true, workspaceIds: [workspaceId] });
     expect(next.campaigns.find((c) => c.campaignId === campaign.id)).toMatchObject({ recomputed: true, days: 7 });
     expect(await listAnalysisDays(campaign.id)).toHaveLength(7);
   });

@@ -13,7 +13,9 @@ async function tokenOf(request: Request): Promise<string | null> {
   if (Number(request.headers.get("content-length") ?? "0") > MAX_BODY) return null;
   const type = request.headers.get("content-type") ?? "";
   if (type.includes("application/x-www-form-urlencoded") || type.includes("multipart/form-data")) {
-    const value = (await request.formData()).get("token");
+    // A body that does not parse as the form it claims to be carries no token.
+    const form = await request.formData().catch(() => null);
+    const value = form?.get("token");
     return typeof value === "string" ? value : null;
   }
   return null;
