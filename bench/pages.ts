@@ -14,10 +14,8 @@
  *     with a path) is in the document and a frame has been painted, beside the page's `load` event.
  * Writes bench/results/pages.json.
  */
-import { randomUUID } from "node:crypto";
 import { chromium } from "playwright-core";
-import pg from "pg";
-import { createBenchCampaign, createBenchWorkspace, dayFromToday, machineLine, printTable, startBenchStack, writeResults } from "./lib/stack";
+import { machineLine, printTable, seedAnalysedCampaign, startBenchStack, writeResults } from "./lib/stack";
 
 const RUNS = 3;
 const TARGETS = { firstLoadJavaScriptKiB: 250, usableChartMs: 1_000 };
@@ -47,28 +45,7 @@ async function main(): Promise<void> {
   const browser = await chromium.launch({ executablePath: "/usr/bin/chromium", headless: true, args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking"] });
   try {
     const appUrl = stack.appUrl!;
-    const workspace = await createBenchWorkspace(appUrl, stack.databaseUrl, 1);
-    const campaign = await createBenchCampaign(workspace.admin, 0, 90);
-    const rows = [];
-    for (let day = 0; day < 90; day++) {
-      const date = dayFromToday(-90 + day);
-      rows.push({ campaign: campaign.id, arm: "holdout", date, units: 2_000, conversions: 100 + (day % 5) });
-      rows.push({ campaign: campaign.id, arm: "treatment", date, units: 18_000, conversions: 1_010 + (day % 7) });
-    }
-    const pushed = await fetch(`${appUrl}/api/v1/ingest`, {
-      method: "POST",
-      headers: { authorization: `Bearer ${workspace.keys[0]}`, "content-type": "application/json", "idempotency-key": randomUUID() },
-      body: JSON.stringify({ rows }),
-    });
-    if (pushed.status !== 200) throw new Error(`ingest answered ${pushed.status}`);
-    const pool = new pg.Pool({ connectionString: stack.databaseUrl, max: 1 });
-    await pool.query("update campaigns set status = 'running' where id = $1", [campaign.id]);
-    await pool.end();
-    Object.assign(process.env, stack.env, { LOG_LEVEL: "silent", RECOMPUTE_HOLD_MS: "0" });
-    const { runRecompute } = await import("../cron/recompute");
-    const { closeDb } = await import("../db");
-    await runRecompute({ wait: true });
-    await closeDb();
+    const { workspace, campaign } = await seedAnalysedCampaign(stack, 1_010);
 
     const host = new URL(appUrl).hostname;
     const cookies = [...workspace.admin.cookies].map(([name, value]) => ({ name, value, domain: host, path: "/" }));

@@ -13,10 +13,8 @@
  *     the ETag of the last answer (If-None-Match: 304 without a body).
  * Writes bench/results/status-api.json.
  */
-import { randomUUID } from "node:crypto";
 import autocannon from "autocannon";
-import pg from "pg";
-import { createBenchCampaign, createBenchWorkspace, dayFromToday, machineLine, printTable, processCpuMs, startBenchStack, writeResults } from "./lib/stack";
+import { machineLine, printTable, processCpuMs, seedAnalysedCampaign, startBenchStack, writeResults } from "./lib/stack";
 
 const CONNECTIONS = 100;
 const DURATION_SECONDS = 10;
@@ -52,30 +50,8 @@ async function main(): Promise<void> {
   try {
     const appUrl = stack.appUrl!;
     appPid = stack.app!.child.pid;
-    const workspace = await createBenchWorkspace(appUrl, stack.databaseUrl, 1);
-    const campaign = await createBenchCampaign(workspace.admin, 0, 90);
-    const rows = [];
-    for (let day = 0; day < 90; day++) {
-      const date = dayFromToday(-90 + day);
-      rows.push({ campaign: campaign.id, arm: "holdout", date, units: 2_000, conversions: 100 + (day % 5) });
-      rows.push({ campaign: campaign.id, arm: "treatment", date, units: 18_000, conversions: 990 + (day % 7) });
-    }
-    const pushed = await fetch(`${appUrl}/api/v1/ingest`, {
-      method: "POST",
-      headers: { authorization: `Bearer ${workspace.keys[0]}`, "content-type": "application/json", "idempotency-key": randomUUID() },
-      body: JSON.stringify({ rows }),
-    });
-    if (pushed.status !== 200) throw new Error(`ingest answered ${pushed.status}`);
-    // Launch it (a registered campaign is a draft until launched; the bench sets the status directly).
-    const pool = new pg.Pool({ connectionString: stack.databaseUrl, max: 1 });
-    await pool.query("update campaigns set status = 'running' where id = $1", [campaign.id]);
-    await pool.end();
-    Object.assign(process.env, stack.env, { LOG_LEVEL: "silent", RECOMPUTE_HOLD_MS: "0" });
-    const { runRecompute } = await import("../cron/recompute");
-    const { closeDb } = await import("../db");
-    const pass = await runRecompute({ wait: true });
-    await closeDb();
-    if (pass.recomputed !== 1) throw new Error("the worker did not analyse the campaign");
+    const { workspace, campaign, recomputed } = await seedAnalysedCampaign(stack, 990);
+    if (recomputed !== 1) throw new Error("the worker did not analyse the campaign");
 
     const headers = { authorization: `Bearer ${workspace.keys[0]}` };
     const statusUrl = `${appUrl}/api/v1/campaigns/${campaign.id}/status`;

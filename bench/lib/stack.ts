@@ -211,3 +211,39 @@ export function printTable(rows: Record<string, string | number>[]): void {
     console.log(line(columns.map((column, index) => (typeof row[column] === "number" ? String(row[column]).padStart(widths[index]) : String(row[column]).padEnd(widths[index])))));
   }
 }
+
+/**
+ * One campaign with 90 analysed days, as a dashboard sees it: registered and fed through the API,
+ * launched, and recomputed once by the worker in this process. `treatmentConversions` is the
+ * treatment arm's daily base (the holdout converts at 5 %).
+ */
+export async function seedAnalysedCampaign(
+  stack: BenchStack,
+  treatmentConversions: number,
+): Promise<{ workspace: BenchWorkspace; campaign: { id: string; slug: string }; recomputed: number }> {
+  const appUrl = stack.appUrl!;
+  const workspace = await createBenchWorkspace(appUrl, stack.databaseUrl, 1);
+  const campaign = await createBenchCampaign(workspace.admin, 0, 90);
+  const rows = [];
+  for (let day = 0; day < 90; day++) {
+    const date = dayFromToday(-90 + day);
+    rows.push({ campaign: campaign.id, arm: "holdout", date, units: 2_000, conversions: 100 + (day % 5) });
+    rows.push({ campaign: campaign.id, arm: "treatment", date, units: 18_000, conversions: treatmentConversions + (day % 7) });
+  }
+  const pushed = await fetch(`${appUrl}/api/v1/ingest`, {
+    method: "POST",
+    headers: { authorization: `Bearer ${workspace.keys[0]}`, "content-type": "application/json", "idempotency-key": randomUUID() },
+    body: JSON.stringify({ rows }),
+  });
+  if (pushed.status !== 200) throw new Error(`ingest answered ${pushed.status}`);
+  // Launch it (a registered campaign is a draft until launched; the bench sets the status directly).
+  const pool = new pg.Pool({ connectionString: stack.databaseUrl, max: 1 });
+  await pool.query("update campaigns set status = 'running' where id = $1", [campaign.id]);
+  await pool.end();
+  Object.assign(process.env, stack.env, { LOG_LEVEL: "silent", RECOMPUTE_HOLD_MS: "0" });
+  const { runRecompute } = await import("../../cron/recompute");
+  const { closeDb } = await import("../../db");
+  const pass = await runRecompute({ wait: true });
+  await closeDb();
+  return { workspace, campaign, recomputed: pass.recomputed };
+}
