@@ -66,21 +66,27 @@ export const dailyCounts = pgTable(
     sum: doublePrecision("sum").notNull(),
     sumSquares: doublePrecision("sum_squares").notNull(),
     source: text("source", { enum: COUNT_SOURCES }).notNull(),
-    batchId: uuid("batch_id").references(() => ingestBatches.id, { onDelete: "set null" }),
+    /** The batch that wrote these values; no foreign key (see the comment on the table). */
+    batchId: uuid("batch_id"),
     revision: integer("revision").notNull().default(0),
     ...timestamps,
   },
+  // No index on a column a replace writes, so a replaced count is a HOT update (fillfactor in 0002). The
+  // unique (arm_id, day) index serves arm_id lookups. batch_id is provenance only: a batch is deleted
+  // only with its workspace, whose campaigns take these rows with it; a key there would need an index.
   (table) => [
     uniqueIndex("daily_counts_arm_id_day_uidx").on(table.armId, table.day),
     index("daily_counts_campaign_id_idx").on(table.campaignId, table.day),
-    index("daily_counts_arm_id_idx").on(table.armId),
-    index("daily_counts_batch_id_idx").on(table.batchId),
     check("daily_counts_units_check", sql`${table.units} >= 0`),
     check("daily_counts_sum_squares_check", sql`${table.sumSquares} >= 0`),
   ],
 );
 
-/** The values a resend replaced: nothing acknowledged is ever lost. */
+/**
+ * The values a resend replaced: nothing acknowledged is ever lost. A revision belongs to a real count
+ * (and goes with it); campaign, arm and batches are copies of that count's, kept without keys or indexes
+ * because nothing reads revisions by them and each key costs a check per row and an index for deletes.
+ */
 export const dailyCountRevisions = pgTable(
   "daily_count_revisions",
   {
@@ -88,30 +94,20 @@ export const dailyCountRevisions = pgTable(
     dailyCountId: uuid("daily_count_id")
       .notNull()
       .references(() => dailyCounts.id, { onDelete: "cascade" }),
-    campaignId: uuid("campaign_id")
-      .notNull()
-      .references(() => campaigns.id, { onDelete: "cascade" }),
-    armId: uuid("arm_id")
-      .notNull()
-      .references(() => arms.id, { onDelete: "cascade" }),
+    campaignId: uuid("campaign_id").notNull(),
+    armId: uuid("arm_id").notNull(),
     day: date("day").notNull(),
     revision: integer("revision").notNull(),
     units: integer("units").notNull(),
     sum: doublePrecision("sum").notNull(),
     sumSquares: doublePrecision("sum_squares").notNull(),
     source: text("source", { enum: COUNT_SOURCES }).notNull(),
-    batchId: uuid("batch_id").references(() => ingestBatches.id, { onDelete: "set null" }),
-    replacedByBatchId: uuid("replaced_by_batch_id").references(() => ingestBatches.id, { onDelete: "set null" }),
+    batchId: uuid("batch_id"),
+    replacedByBatchId: uuid("replaced_by_batch_id"),
     replacedAt: timestamp("replaced_at", { withTimezone: true }).defaultNow().notNull(),
     ...timestamps,
   },
-  (table) => [
-    index("daily_count_revisions_daily_count_id_idx").on(table.dailyCountId),
-    index("daily_count_revisions_campaign_id_idx").on(table.campaignId),
-    index("daily_count_revisions_arm_id_idx").on(table.armId),
-    index("daily_count_revisions_batch_id_idx").on(table.batchId),
-    index("daily_count_revisions_replaced_by_batch_id_idx").on(table.replacedByBatchId),
-  ],
+  (table) => [index("daily_count_revisions_daily_count_id_idx").on(table.dailyCountId)],
 );
 
 export type IngestBatch = typeof ingestBatches.$inferSelect;
