@@ -25,7 +25,10 @@ export interface NaivePeekingOptions {
  * *Group Sequential Methods with Applications to Clinical Trials*, Table 1.1 and ch. 19.
  * Assumes the canonical joint distribution: the z statistics at the looks are those of one
  * Brownian motion, corr(Z_i, Z_j) = √(t_i/t_j) (large samples, known variance, no effect).
- * Complexity: O(K·m·w), K looks, m ≈ 85–170 grid nodes, w ≤ m nodes within the kernel's reach.
+ * Complexity: O(K·m·w), K looks, m ≈ 85–170 grid nodes, w ≤ m nodes within the kernel's reach;
+ * O(K) for inputs seen before: the curve is a function of the level, the sides and the fractions
+ * alone, so the last 256 curves are kept under their exact inputs (campaigns whose days carry equal
+ * shares of their traffic share one curve).
  *
  * @param informationFractions - the looks' information fractions n_k/n*, strictly increasing in
  *   (0, 1]; only their ratios matter, so looks past the planned horizon can be divided by the last one
@@ -47,13 +50,23 @@ export function naivePeekingErrorByLook(
   if (sides !== 1 && sides !== 2) {
     throw new RangeError(`naivePeekingErrorByLook requires sides 1 or 2, got ${String(sides)}`);
   }
+  // The curve depends on nothing but the level, the sides and the fractions: equal inputs, equal curve.
+  const key = `${significanceLevel}|${sides}|${informationFractions.join(",")}`;
+  const known = curveMemo.get(key);
+  if (known !== undefined) return known.slice();
   const critical = normalQuantile(1 - significanceLevel / sides);
   const upper = informationFractions.map(() => critical);
   const lower = sides === 2 ? "symmetric" : informationFractions.map(() => -Infinity);
   const cumulative = crossingProbabilities(informationFractions, upper, lower).total;
   cumulative[0] = significanceLevel;
+  if (curveMemo.size >= CURVE_MEMO_SIZE) curveMemo.delete(curveMemo.keys().next().value as string);
+  curveMemo.set(key, cumulative.slice());
   return cumulative;
 }
+
+/** Curves kept by exact inputs (the key is the full-precision fractions, so a hit is the same result). */
+const CURVE_MEMO_SIZE = 256;
+const curveMemo = new Map<string, number[]>();
 
 /**
  * Cost of peeking: the probability, under no effect, that a naive fixed-level z-test repeated at

@@ -1,5 +1,5 @@
 import { continuationDensity, type ContinuationDensity } from "./recursive-integration";
-import { exitProbability } from "./recursive-integration-exit";
+import { exitMass } from "./recursive-integration-exit";
 import { lookResolution } from "./recursive-integration-resolution";
 
 /** Default grid parameter r; the result is Richardson-extrapolated from r and 2r. */
@@ -90,11 +90,13 @@ function crossingPass(
   let upperSum = 0;
   let lowerSum = 0;
   let previous: ContinuationDensity | undefined;
+  // Two buffers taken in turn: look k reads one while writing the other.
+  let buffers: [Float64Array, Float64Array] | undefined;
   for (let k = 0; k < fractions.length; k += 1) {
     const fraction = fractions[k];
     const symmetricLook = lower[k] === -upper[k] && (previous === undefined || previous.symmetric);
-    const upperExit = exitProbability(previous, fraction, upper[k], "upper").probability;
-    const lowerExit = symmetricLook ? upperExit : exitProbability(previous, fraction, lower[k], "lower").probability;
+    const upperExit = exitMass(previous, fraction, upper[k], "upper");
+    const lowerExit = symmetricLook ? upperExit : exitMass(previous, fraction, lower[k], "lower");
     upperSum += upperExit;
     lowerSum += lowerExit;
     upperCumulative.push(upperSum);
@@ -102,7 +104,10 @@ function crossingPass(
     total.push(upperSum + lowerSum);
     if (k + 1 < fractions.length) {
       const grid = lookResolution(resolution, fractions, k);
-      previous = continuationDensity(previous, fraction, lower[k], upper[k], grid);
+      // A grid with parameter r has at most 2·(6r + 1) + 1 nodes (base points, two ends, midpoints).
+      const nodes = 12 * grid + 3;
+      if (buffers === undefined || buffers[0].length < nodes) buffers = [new Float64Array(nodes), new Float64Array(nodes)];
+      previous = continuationDensity(previous, fraction, lower[k], upper[k], grid, buffers[k & 1]);
     }
   }
   return { total, upper: upperCumulative, lower: lowerCumulative };

@@ -43,8 +43,11 @@ const KERNEL_REACH = 8;
  * @param lower - lower end of the continuation region on the z scale (−Infinity for none)
  * @param upper - upper end of the continuation region (+Infinity for none), above lower
  * @param resolution - grid parameter r of {@link integrationGrid}, an integer ≥ 2
- * @returns the continuation sub-density at look k
- * @throws RangeError when fraction is not finite, ≤ 0 or not above previous.fraction; and as {@link integrationGrid}
+ * @param into - optional storage for the result's weightedDensity, at least as long as this look's
+ *   grid and not the storage of `previous` (a recursion alternates two, so a pass allocates none)
+ * @returns the continuation sub-density at look k (its weightedDensity a view of `into` when given)
+ * @throws RangeError when fraction is not finite, ≤ 0 or not above previous.fraction; when `into`
+ *   is too short or shares storage with previous; and as {@link integrationGrid}
  * @example
  * const first = continuationDensity(undefined, 0.5, -1.96, 1.96, 16);
  * first.weightedDensity.reduce((s, v) => s + v, 0) // ≈ 0.95
@@ -55,6 +58,7 @@ export function continuationDensity(
   lower: number,
   upper: number,
   resolution: number,
+  into?: Float64Array,
 ): ContinuationDensity {
   if (!(Number.isFinite(fraction) && fraction > 0)) {
     throw new RangeError(`continuationDensity requires a finite fraction > 0, got ${fraction}`);
@@ -68,7 +72,10 @@ export function continuationDensity(
   const { points, weights } = grid;
   const count = points.length;
   const symmetric = lower === -upper && (previous === undefined || previous.symmetric);
-  const weightedDensity = new Float64Array(count);
+  if (into !== undefined && (into.length < count || (previous !== undefined && into.buffer === previous.weightedDensity.buffer))) {
+    throw new RangeError(`continuationDensity requires storage of ${count} values apart from the previous look's`);
+  }
+  const weightedDensity = into === undefined ? new Float64Array(count) : into.subarray(0, count);
   const computed = symmetric ? (count + 1) >> 1 : count;
 
   if (previous === undefined) {

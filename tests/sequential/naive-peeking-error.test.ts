@@ -129,6 +129,28 @@ describe("naivePeekingError properties", () => {
   });
 });
 
+describe("naivePeekingErrorByLook remembered curves", () => {
+  it("answers repeated inputs with the same values, in a fresh array each time", () => {
+    const fractions = freeze(equalFractions(37));
+    const first = naivePeekingErrorByLook(fractions, { significanceLevel: 0.04 });
+    first[5] = 99;
+    const second = naivePeekingErrorByLook(fractions, { significanceLevel: 0.04 });
+    expect(second[5]).not.toBe(99);
+    const critical = fractions.map(() => 2.053748910631823);
+    const direct = crossingProbabilities(fractions, critical, "symmetric").total;
+    second.slice(1).forEach((value, k) => expect(value).toBeCloseTo(direct[k + 1], 12));
+  });
+  it("keeps the level and the sides apart", () => {
+    const fractions = freeze(equalFractions(12));
+    const twoSided = naivePeekingErrorByLook(fractions, { significanceLevel: 0.05 });
+    const oneSided = naivePeekingErrorByLook(fractions, { significanceLevel: 0.05, sides: 1 });
+    const other = naivePeekingErrorByLook(fractions, { significanceLevel: 0.1 });
+    expect(oneSided[11]).not.toBeCloseTo(twoSided[11], 3);
+    expect(other[11]).toBeGreaterThan(twoSided[11] + 0.05);
+    expect(naivePeekingErrorByLook(fractions, { significanceLevel: 0.05, sides: 1 })).toEqual(oneSided);
+  });
+});
+
 describe("naivePeekingError guards", () => {
   for (const fn of [naivePeekingError, naivePeekingErrorByLook]) {
     it(`${fn.name} rejects an empty schedule`, () => {

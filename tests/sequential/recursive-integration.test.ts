@@ -4,7 +4,7 @@ import { solveDecreasing } from "@/lib/sequential/group-sequential-root";
 import { normalCdf, normalDensity } from "@/lib/sequential/normal-distribution";
 import { continuationDensity } from "@/lib/sequential/recursive-integration";
 import { crossingProbabilities } from "@/lib/sequential/recursive-integration-crossing";
-import { exitProbability } from "@/lib/sequential/recursive-integration-exit";
+import { exitMass, exitProbability } from "@/lib/sequential/recursive-integration-exit";
 import { integrationGrid } from "@/lib/sequential/recursive-integration-grid";
 import { lookResolution } from "@/lib/sequential/recursive-integration-resolution";
 
@@ -60,6 +60,45 @@ describe("continuationDensity and exitProbability", () => {
     expect(() => exitProbability(first, 1, Number.NaN, "upper")).toThrow("exitProbability requires a bound, got NaN");
     expect(() => exitProbability(undefined, Infinity, 1, "upper")).toThrow("exitProbability requires a finite fraction > 0");
     expect(() => exitProbability(first, 0.4, 1, "upper")).toThrow("exitProbability requires a fraction above the previous look's 0.5");
+  });
+});
+
+describe("exitMass", () => {
+  it("equals exitProbability's probability on either side, at the first look and beyond", () => {
+    const first = continuationDensity(undefined, 0.2, -2.2, 1.9, 20);
+    const second = continuationDensity(first, 0.45, -2.2, 1.9, 20);
+    for (const [previous, fraction] of [[undefined, 0.2], [first, 0.45], [second, 0.46], [second, 1]] as const) {
+      for (const bound of [-Infinity, -2.3, -0.5, 0, 1.7, 2.4, Infinity]) {
+        for (const side of ["upper", "lower"] as const) {
+          expect(exitMass(previous, fraction, bound, side)).toBeCloseTo(exitProbability(previous, fraction, bound, side).probability, 15);
+        }
+      }
+    }
+    expect(exitMass(second, 1, 2.4, "upper")).toBeGreaterThan(0);
+  });
+  it("throws on each guard", () => {
+    const first = continuationDensity(undefined, 0.5, -2, 2, 8);
+    expect(() => exitMass(first, 1, Number.NaN, "upper")).toThrow("exitMass requires a bound, got NaN");
+    expect(() => exitMass(undefined, Infinity, 1, "upper")).toThrow("exitMass requires a finite fraction > 0");
+    expect(() => exitMass(first, 0.4, 1, "upper")).toThrow("exitMass requires a fraction above the previous look's 0.5");
+  });
+});
+
+describe("continuationDensity into given storage", () => {
+  it("gives the same density as fresh storage, in a view of the storage", () => {
+    const first = continuationDensity(undefined, 0.3, -2, 2, 16);
+    const fresh = continuationDensity(first, 0.6, -2.1, 1.8, 16);
+    const storage = new Float64Array(1000).fill(7);
+    const reused = continuationDensity(first, 0.6, -2.1, 1.8, 16, storage);
+    expect(Array.from(reused.weightedDensity)).toEqual(Array.from(fresh.weightedDensity));
+    expect(reused.weightedDensity.buffer).toBe(storage.buffer);
+    expect(storage[reused.weightedDensity.length]).toBe(7);
+  });
+  it("refuses storage too short or shared with the previous look", () => {
+    const storage = new Float64Array(1000);
+    const first = continuationDensity(undefined, 0.3, -2, 2, 16, storage);
+    expect(() => continuationDensity(first, 0.6, -2, 2, 16, storage.subarray(500))).toThrow("continuationDensity requires storage of");
+    expect(() => continuationDensity(first, 0.6, -2, 2, 16, new Float64Array(10))).toThrow("continuationDensity requires storage of");
   });
 });
 
