@@ -1,16 +1,34 @@
 import { getSessionCookie } from "better-auth/cookies";
 import { NextResponse, type NextRequest } from "next/server";
+import { problemResponse } from "@/lib/http/problem";
+import { malformedActionCallProblem, malformedPathProblem } from "@/lib/http/request-guards";
 
-// Only a cookie-presence redirect for pages; every handler and action authorizes for itself.
-export function proxy(request: NextRequest) {
+const PUBLIC_PAGES = /^\/(?:api|_next|sign-in|sign-up|forgot-password|reset-password|verify-email|invitations|unsubscribe|docs|icon\.svg|logo\.svg|favicon\.ico)(?:\/|$)/;
+
+// A cookie-presence redirect for pages, and a 4xx for requests Next would answer with a bare 500; every
+// handler and action authorizes for itself.
+export async function proxy(request: NextRequest) {
+  const { pathname } = request.nextUrl;
+  const badPath = malformedPathProblem(pathname);
+  if (badPath) return problemResponse({ ...badPath, instance: pathname });
+  if (PUBLIC_PAGES.test(pathname)) return NextResponse.next();
   if (!getSessionCookie(request)) {
     const url = new URL("/sign-in", request.url);
-    url.searchParams.set("next", request.nextUrl.pathname);
+    url.searchParams.set("next", pathname);
     return NextResponse.redirect(url);
+  }
+  if (request.method === "POST" && request.headers.has("next-action")) {
+    const badCall = await malformedActionCallProblem(request);
+    if (badCall) return problemResponse({ ...badCall, instance: pathname });
   }
   return NextResponse.next();
 }
 
 export const config = {
-  matcher: ["/((?!api|_next|sign-in|sign-up|forgot-password|reset-password|verify-email|invitations|unsubscribe|docs|icon.svg|logo.svg|favicon.ico).*)"],
+  matcher: [
+    "/((?!api|_next|sign-in|sign-up|forgot-password|reset-password|verify-email|invitations|unsubscribe|docs|icon.svg|logo.svg|favicon.ico).*)",
+    // Any other address only when it holds a percent-encoding that may not decode (a non-ASCII byte or a stray
+    // `%`), so the API's hot paths never pass through here.
+    "/:path(.*%(?:[89a-fA-F]|(?![0-9a-fA-F]{2})).*)",
+  ],
 };

@@ -49,11 +49,57 @@ export async function createActionFuzzWorld(appUrl: string, distDir?: string): P
 
 export interface ActionCase {
   action: ActionName;
-  /** `json`: React's reply encoding of the arguments; `form`: one FormData argument, as a form submits it. */
-  encoding: "json" | "form";
+  /**
+   * `json`: React's reply encoding of the arguments; `form`: one FormData argument, as a form submits it;
+   * `raw`: a body no React client writes (references, broken JSON, too large), sent as it is.
+   */
+  encoding: "json" | "form" | "raw";
   args: unknown[];
   form?: [string, string][];
+  raw?: { contentType: string; body: string };
 }
+
+function encodeLeaf(value: unknown): unknown {
+  if (typeof value === "string") return value.startsWith("$") ? `$${value}` : value;
+  if (typeof value === "number") {
+    if (Number.isNaN(value)) return "$NaN";
+    if (value === Infinity) return "$Infinity";
+    if (value === -Infinity) return "$-Infinity";
+    return Object.is(value, -0) ? "$-0" : value;
+  }
+  return value === undefined ? "$undefined" : value;
+}
+
+/**
+ * The arguments as React's encodeReply writes plain values: `$` escaped as `$$`, and markers for what JSON
+ * lacks. Copied without recursion: the generated inputs nest thousands of levels deep.
+ */
+export function encodeReply(args: unknown[]): string {
+  const root: unknown[] = [];
+  const pending: [source: unknown, target: Record<string, unknown> | unknown[]][] = [[args, root]];
+  while (pending.length > 0) {
+    const [source, target] = pending.pop()!;
+    for (const [key, value] of Object.entries(source as object)) {
+      let copy: unknown = encodeLeaf(value);
+      if (value && typeof value === "object") {
+        copy = Array.isArray(value) ? [] : {};
+        pending.push([value, copy as Record<string, unknown>]);
+      }
+      (target as Record<string, unknown>)[key] = copy;
+    }
+  }
+  return JSON.stringify(root);
+}
+
+/** Bodies a browser never sends: reply references to rows that do not exist, broken JSON, a body over the limit. */
+const rawBody: fc.Arbitrary<{ contentType: string; body: string }> = fc.oneof(
+  fc
+    .tuple(fc.constantFrom("$", "$1", "$@1", "$Q0", "$W2", "$h1", "$T", "$K", "$nabc", "$F1", "$B1", "$S", "$i1", "$l1", "$Z"), fc.string({ maxLength: 8 }))
+    .map(([marker, tail]) => ({ contentType: "text/plain;charset=UTF-8", body: JSON.stringify([{ memberId: marker + tail }, marker]) })),
+  fc.constantFrom("", "[", "{}", "null", '"text"', "[1,", "\u0000", "[\"$1\"]").map((body) => ({ contentType: "text/plain;charset=UTF-8", body })),
+  fc.integer({ min: 1_048_577, max: 1_200_000 }).map((length) => ({ contentType: "text/plain;charset=UTF-8", body: JSON.stringify(["x".repeat(length)]) })),
+  fc.constantFrom("--x\r\nContent-Disposition: form-data; name=\"0\"\r\n\r\n[\"$1\"]\r\n--x--\r\n", "--x\r\nbroken", "--x\r\nContent-Disposition: form-data; name=\"0\"\r\n\r\nnot json\r\n--x--\r\n").map((body) => ({ contentType: "multipart/form-data; boundary=x", body })),
+);
 
 const hugeText = fc.integer({ min: 200, max: 70_000 }).map((length) => "x".repeat(length));
 
@@ -114,7 +160,8 @@ export function actionArbitraries(world: ActionFuzzWorld) {
     const form: fc.Arbitrary<ActionCase> = fc
       .array(fc.tuple(fc.oneof(fc.constantFrom(...inputShape(action)), fc.string({ maxLength: 10 })), fc.oneof(badValue(world).map((value) => (typeof value === "string" ? value : JSON.stringify(value) ?? "")), hugeText)), { maxLength: 6 })
       .map((entries) => ({ action, encoding: "form", args: [], form: entries }));
-    return fc.oneof({ arbitrary: json, weight: 3 }, { arbitrary: form, weight: 1 });
+    const raw: fc.Arbitrary<ActionCase> = rawBody.map((body) => ({ action, encoding: "raw", args: [], raw: body }));
+    return fc.oneof({ arbitrary: json, weight: 3 }, { arbitrary: form, weight: 1 }, { arbitrary: raw, weight: 1 });
   });
   return { actionCase: fc.oneof(...perAction) };
 }
@@ -128,9 +175,12 @@ export async function sendActionCase(world: ActionFuzzWorld, testCase: ActionCas
     form.append("0", JSON.stringify(["$K1"]));
     for (const [name, value] of testCase.form ?? []) form.append(`1_${name}`, value);
     body = form;
+  } else if (testCase.encoding === "raw" && testCase.raw) {
+    headers["content-type"] = testCase.raw.contentType;
+    body = testCase.raw.body;
   } else {
     headers["content-type"] = "text/plain;charset=UTF-8";
-    body = JSON.stringify(testCase.args);
+    body = encodeReply(testCase.args);
   }
   return world.northwind.admin.client.fetch(ACTIONS[testCase.action].page, { method: "POST", headers, body });
 }
@@ -145,6 +195,11 @@ export async function checkActionCase(world: ActionFuzzWorld, testCase: ActionCa
   const text = await response.text();
   const context = `${testCase.action} ${response.status}: ${text.slice(0, 300)}`;
   assert.ok(response.status < 500, `expected no 5xx, got ${context}`);
+  if (testCase.encoding === "raw") {
+    assert.ok(response.status === 400 || response.status === 413, `a malformed call was not refused: ${context}`);
+    assert.match(response.headers.get("content-type") ?? "", /application\/problem\+json/, `not a problem document: ${context}`);
+    return response.status;
+  }
   if (response.status >= 400) return response.status;
   assert.match(response.headers.get("content-type") ?? "", /text\/x-component/, `not an action answer: ${context}`);
   const result = parseFlightResult(text);

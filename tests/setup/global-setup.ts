@@ -31,7 +31,8 @@ export default async function setup(project: TestProject) {
   const mail = await startMailCatcher({ smtpPort: await freePort(), httpPort: await freePort() });
   const appPort = await freePort();
   const env = throwawayEnv({ databaseUrl: cluster.url, appPort, mail });
-  if (buildIsStale()) buildApp(env);
+  // REUSE_BUILD=1 serves the build folder as it is: a quick re-run of a few files while others edit sources.
+  if (process.env.REUSE_BUILD !== "1" && buildIsStale()) buildApp(env);
   const app = await startApp({ port: appPort, env, quiet: true });
 
   project.provide("appUrl", app.url);

@@ -19,13 +19,16 @@ const { values: options } = parseArgs({
     seed: { type: "string", default: "20260701" },
     minutes: { type: "string", default: "20" },
     rebuild: { type: "boolean", default: false },
+    "reuse-build": { type: "boolean", default: false },
+    only: { type: "string", default: "ingest,csv,routes,actions" },
   },
 });
 const runs = Number(options.runs);
 const seed = Number(options.seed);
 const minutes = Number(options.minutes);
+const only = new Set(options.only.split(","));
 if (!Number.isInteger(runs) || runs < 1 || !Number.isInteger(seed) || !(minutes > 0)) {
-  console.error("usage: npm run soak:fuzz -- [--runs N] [--seed S] [--minutes M] [--rebuild]");
+  console.error("usage: npm run soak:fuzz -- [--runs N] [--seed S] [--minutes M] [--only ingest,csv,routes,actions] [--rebuild | --reuse-build]");
   process.exit(2);
 }
 
@@ -73,11 +76,21 @@ async function runTarget<T>(target: string, arbitrary: fc.Arbitrary<T>, check: (
     interrupted: details.interrupted,
   };
   if (details.failed) {
-    result.counterexample = JSON.stringify(details.counterexample, (_key, value: unknown) => (typeof value === "string" && value.length > 300 ? `${value.slice(0, 300)}… (${value.length} chars)` : value instanceof Uint8Array ? `bytes(${value.length})` : value));
+    result.counterexample = JSON.stringify(clipForReport(details.counterexample));
     result.error = String(details.errorInstance).slice(0, 2000);
   }
   process.stderr.write(`[fuzz] ${target}: ${counts.tried} cases in ${result.seconds} s (${result.perSecond}/s)${details.failed ? " FAILED" : ""}\n`);
   return result;
+}
+
+/** A counterexample small enough to print: long strings and bytes summarised, nesting cut at 20 levels. */
+function clipForReport(value: unknown, depth = 0): unknown {
+  if (typeof value === "string") return value.length > 300 ? `${value.slice(0, 300)}… (${value.length} chars)` : value;
+  if (value instanceof Uint8Array) return `bytes(${value.length})`;
+  if (depth >= 20) return "… (nested deeper)";
+  if (Array.isArray(value)) return value.map((item) => clipForReport(item, depth + 1));
+  if (value && typeof value === "object") return Object.fromEntries(Object.entries(value).map(([key, item]) => [key, clipForReport(item, depth + 1)]));
+  return value;
 }
 
 async function main(): Promise<number> {
@@ -92,11 +105,11 @@ async function main(): Promise<number> {
     const before = await dumpProductTables();
 
     const plan = [
-      { target: "POST /api/v1/ingest", runs, weight: 10, run: (n: number, ms: number) => runTarget("POST /api/v1/ingest", ingest.ingestCase, (c) => checkIngestCase(ingestWorld, c), n, ms) },
-      { target: "CSV upload", runs, weight: 10, run: (n: number, ms: number) => runTarget("CSV upload", ingest.csvCase, (c) => checkCsvCase(ingestWorld, c), n, ms) },
-      { target: "REST routes", runs: Math.ceil(runs / 2), weight: 4, run: (n: number, ms: number) => runTarget("REST routes", routeArbitraries(routeWorld).routeCase, (c) => checkRouteCase(routeWorld, c), n, ms) },
-      { target: "server actions", runs: Math.ceil(runs / 5), weight: 6, run: (n: number, ms: number) => runTarget("server actions", actionArbitraries(actionWorld).actionCase, (c) => checkActionCase(actionWorld, c), n, ms) },
-    ];
+      { key: "ingest", target: "POST /api/v1/ingest", runs, weight: 10, run: (n: number, ms: number) => runTarget("POST /api/v1/ingest", ingest.ingestCase, (c) => checkIngestCase(ingestWorld, c), n, ms) },
+      { key: "csv", target: "CSV upload", runs, weight: 10, run: (n: number, ms: number) => runTarget("CSV upload", ingest.csvCase, (c) => checkCsvCase(ingestWorld, c), n, ms) },
+      { key: "routes", target: "REST routes", runs: Math.ceil(runs / 2), weight: 4, run: (n: number, ms: number) => runTarget("REST routes", routeArbitraries(routeWorld).routeCase, (c) => checkRouteCase(routeWorld, c), n, ms) },
+      { key: "actions", target: "server actions", runs: Math.ceil(runs / 5), weight: 6, run: (n: number, ms: number) => runTarget("server actions", actionArbitraries(actionWorld).actionCase, (c) => checkActionCase(actionWorld, c), n, ms) },
+    ].filter((step) => only.has(step.key));
     const results: TargetResult[] = [];
     for (const [index, step] of plan.entries()) {
       // Each target gets its share of what is left of the time cap, so one slow target cannot starve the rest.

@@ -21,6 +21,8 @@ export async function startSoakStack(options: { app: boolean; fast?: boolean }):
     distDir: SOAK_DIST_DIR,
     prefix: "peeksafe-soak-",
     rebuild: process.argv.includes("--rebuild"),
+    // `--reuse-build`: serve the build folder as it is, even when a source is newer (a quick re-run while others edit).
+    reuseBuild: process.argv.includes("--reuse-build"),
     log,
   });
   const stopAndExit = (code: number) => () => {

@@ -1,0 +1,105 @@
+import type { Problem } from "./problem";
+
+// Requests no browser of ours sends, which Next.js would answer with a bare 500 before any code of ours
+// runs: a path whose percent-encoding does not decode, and a server-action call whose arguments React's
+// reply decoder cannot read. proxy.ts answers them with a 4xx problem instead.
+
+const PROBLEM_TYPE_BASE = "https://peeksafe.local/problems/";
+
+/** Next's default limit for a server action's body (`serverActions.bodySizeLimit`, 1 MB). */
+export const ACTION_BODY_LIMIT_BYTES = 1024 * 1024;
+
+/** The problem for a path that is not valid percent-encoded UTF-8, or null when every segment decodes. */
+export function malformedPathProblem(pathname: string): Problem | null {
+  for (const segment of pathname.split("/")) {
+    try {
+      decodeURIComponent(segment);
+    } catch {
+      return {
+        type: `${PROBLEM_TYPE_BASE}malformed-address`,
+        title: "Malformed address",
+        status: 400,
+        detail: "The address has a percent-encoding that is not valid UTF-8.",
+      };
+    }
+  }
+  return null;
+}
+
+function malformedCall(detail: string): Problem {
+  return { type: `${PROBLEM_TYPE_BASE}malformed-action-call`, title: "Malformed action call", status: 400, detail };
+}
+
+// The reply encoding of plain values and FormData, as React's encodeReply writes them for the arguments our
+// forms pass: `$$` escapes a string that starts with `$`; `$K<id>` names a FormData argument's parts.
+const PLAIN_MARKERS = new Set(["$undefined", "$NaN", "$Infinity", "$-Infinity", "$-0"]);
+const PLAIN_MARKER = /^\$(?:\$|D|n-?\d+$)/;
+const FORM_DATA_MARKER = /^\$K[0-9a-f]+$/;
+
+function firstUnreadableString(value: unknown, allowFormData: boolean, depth = 0): string | null {
+  if (depth > 256) return "the arguments nest too deeply";
+  if (typeof value === "string") {
+    if (!value.startsWith("$") || PLAIN_MARKERS.has(value) || PLAIN_MARKER.test(value)) return null;
+    if (allowFormData && FORM_DATA_MARKER.test(value)) return null;
+    return `"${value.slice(0, 40)}" is not a value the app's forms send (a string starting with "$" is sent as "$$")`;
+  }
+  if (Array.isArray(value)) {
+    for (const item of value) {
+      const found = firstUnreadableString(item, allowFormData, depth + 1);
+      if (found) return found;
+    }
+    return null;
+  }
+  if (value && typeof value === "object") {
+    for (const item of Object.values(value)) {
+      const found = firstUnreadableString(item, allowFormData, depth + 1);
+      if (found) return found;
+    }
+  }
+  return null;
+}
+
+function readRoot(text: string, allowFormData: boolean): Problem | null {
+  let root: unknown;
+  try {
+    root = JSON.parse(text);
+  } catch {
+    return malformedCall("The action's arguments are not JSON.");
+  }
+  if (!Array.isArray(root)) return malformedCall("The action's arguments are not a list.");
+  const unreadable = firstUnreadableString(root, allowFormData);
+  return unreadable ? malformedCall(`The action's arguments cannot be read: ${unreadable}.`) : null;
+}
+
+/**
+ * Checks a server-action call (a POST with a `Next-Action` header) before Next decodes it: the body fits the
+ * action body limit and its arguments are plain JSON values, or FormData, in React's reply encoding.
+ * @returns the problem to answer with, or null to let the call through
+ */
+export async function malformedActionCallProblem(request: Request): Promise<Problem | null> {
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  const tooLarge: Problem = {
+    type: `${PROBLEM_TYPE_BASE}too-large`,
+    title: "Too large",
+    status: 413,
+    detail: `An action call's body may have at most ${ACTION_BODY_LIMIT_BYTES} bytes.`,
+  };
+  if (declared > ACTION_BODY_LIMIT_BYTES) return tooLarge;
+  const contentType = request.headers.get("content-type") ?? "";
+  if (contentType.startsWith("multipart/form-data")) {
+    let form: FormData;
+    try {
+      form = await request.formData();
+    } catch {
+      return malformedCall("The action's form data does not parse.");
+    }
+    const root = form.get("0");
+    // Without a root part this is a plain form post (a form submitted before the page's scripts ran).
+    if (root === null) return null;
+    if (typeof root !== "string") return malformedCall("The action's arguments are not JSON.");
+    return readRoot(root, true);
+  }
+  const body = await request.arrayBuffer();
+  if (body.byteLength > ACTION_BODY_LIMIT_BYTES) return tooLarge;
+  return readRoot(new TextDecoder().decode(body), false);
+}
