@@ -302,9 +302,12 @@ function analysisRows(campaignId: string, analysis: CampaignAnalysis, inputsHash
   }));
 }
 
-/** JSON text with no ±Infinity: an open interval end is stored as null, as the command line prints it. */
+/**
+ * JSON text with no ±Infinity: an open interval end is stored as null, as the command line prints it.
+ * JSON.stringify itself writes every non-finite number as null, and without a replacer it stays on its fast path.
+ */
 function jsonSafe(value: unknown): string {
-  return JSON.stringify(value, (_key, item) => (typeof item === "number" && !Number.isFinite(item) ? null : item));
+  return JSON.stringify(value);
 }
 
 function alertSnapshot(inputs: AnalysisInputs, analysis: CampaignAnalysis, day: DayResult, fromCall: CallName): AlertSnapshot {
