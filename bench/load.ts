@@ -21,6 +21,7 @@ const { values } = parseArgs({
     pipelines: { type: "string", default: "50" },
     pollers: { type: "string", default: "100" },
     rebuild: { type: "boolean", default: false },
+    "reuse-build": { type: "boolean", default: false },
   },
   strict: true,
 });

@@ -19,7 +19,7 @@ function log(message: string): void {
  * source is newer than that build (or with `--rebuild`).
  */
 export async function startBenchStack(options: { app: boolean }): Promise<BenchStack> {
-  return startThrowawayStack({ app: options.app, distDir: BENCH_DIST_DIR, prefix: "peeksafe-bench-", rebuild: process.argv.includes("--rebuild"), log });
+  return startThrowawayStack({ app: options.app, distDir: BENCH_DIST_DIR, prefix: "peeksafe-bench-", rebuild: process.argv.includes("--rebuild"), reuseBuild: process.argv.includes("--reuse-build"), log });
 }
 
 /** A cookie-keeping client for the app, sending our Origin like a browser. */

@@ -18,7 +18,7 @@ import { createBenchCampaign, createBenchWorkspace, machineLine, type BenchWorks
 import { startFaultStack, waitFor, type FaultStack, type WorkerProcess } from "../faults/lib/fault-stack";
 import { batchSource, checkStored, isCleanProblem, launchCampaigns, percentile, retryFailed, runPipelines, sendBatch, type BatchRecord, type IngestRow } from "../faults/lib/pipelines";
 
-const { values } = parseArgs({ options: { minutes: { type: "string", default: "5" }, only: { type: "string", default: "abcd" } }, strict: true });
+const { values } = parseArgs({ options: { minutes: { type: "string", default: "5" }, only: { type: "string", default: "abcd" }, rebuild: { type: "boolean", default: false }, "reuse-build": { type: "boolean", default: false } }, strict: true });
 const minutes = Math.min(10, Math.max(1, Number(values.minutes)));
 const deadline = Date.now() + minutes * 60_000;
 const rounds = Math.max(1, Math.min(5, Math.floor(minutes / 2)));
