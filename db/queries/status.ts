@@ -1,5 +1,5 @@
 import { and, eq, sql } from "drizzle-orm";
-import { getDb } from "@/db";
+import { getDb, type Database } from "@/db";
 import { analysisDays, campaigns } from "@/db/schema";
 import { analysisDayColumns, type StoredAnalysis } from "./analysis";
 import type { CampaignDto } from "./campaigns";
@@ -15,14 +15,10 @@ export interface StatusSource {
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-/**
- * A workspace's campaign (by id or slug) with its latest analysis day and all stored issues, in one
- * statement (one snapshot, one round trip); null when the workspace has no such campaign.
- */
-export async function getStatusSource(workspaceId: string, reference: string): Promise<StatusSource | null> {
-  const match = UUID.test(reference) ? eq(campaigns.id, reference.toLowerCase()) : eq(campaigns.slug, reference);
+function buildStatusQuery(db: Database, by: "id" | "slug") {
+  const reference = sql.placeholder("reference");
   const latestDay = sql`(select max(${analysisDays.day}) from ${analysisDays} where ${analysisDays.campaignId} = ${campaigns.id})`;
-  const [row] = await getDb()
+  return db
     .select({
       id: campaigns.id,
       name: campaigns.name,
@@ -41,8 +37,33 @@ export async function getStatusSource(workspaceId: string, reference: string): P
     })
     .from(campaigns)
     .leftJoin(analysisDays, and(eq(analysisDays.campaignId, campaigns.id), eq(analysisDays.day, latestDay)))
-    .where(and(eq(campaigns.workspaceId, workspaceId), match))
-    .limit(1);
+    .where(and(eq(campaigns.workspaceId, sql.placeholder("workspaceId")), by === "id" ? eq(campaigns.id, reference) : eq(campaigns.slug, reference)))
+    .limit(1)
+    .prepare(`status_source_by_${by}`);
+}
+
+type StatusQuery = ReturnType<typeof buildStatusQuery>;
+
+// Built once per database client (tests close and reopen it), so a poll neither rebuilds the SQL nor has it parsed again.
+const preparedByDb = new WeakMap<Database, { id: StatusQuery; slug: StatusQuery }>();
+
+function statusQuery(by: "id" | "slug"): StatusQuery {
+  const db = getDb();
+  let prepared = preparedByDb.get(db);
+  if (!prepared) {
+    prepared = { id: buildStatusQuery(db, "id"), slug: buildStatusQuery(db, "slug") };
+    preparedByDb.set(db, prepared);
+  }
+  return prepared[by];
+}
+
+/**
+ * A workspace's campaign (by id or slug) with its latest analysis day and all stored issues, in one
+ * statement (one snapshot, one round trip); null when the workspace has no such campaign.
+ */
+export async function getStatusSource(workspaceId: string, reference: string): Promise<StatusSource | null> {
+  const byId = UUID.test(reference);
+  const [row] = await statusQuery(byId ? "id" : "slug").execute({ workspaceId, reference: byId ? reference.toLowerCase() : reference });
   if (!row) return null;
   const campaign: StatusCampaign = {
     id: row.id,

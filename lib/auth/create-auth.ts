@@ -1,5 +1,6 @@
 import { apiKey } from "@better-auth/api-key";
 import { betterAuth, type BetterAuthPlugin } from "better-auth";
+import { createAuthMiddleware } from "better-auth/api";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { organization } from "better-auth/plugins";
 import { getDb } from "@/db";
@@ -8,6 +9,7 @@ import * as schema from "@/db/schema";
 import { getEnv } from "@/lib/env";
 import { sendInvitationMail, sendPasswordResetMail, sendVerificationMail } from "@/lib/mail/account-mail";
 import { KEY_PERMISSIONS, accessControl, roles } from "./permissions";
+import { forgetMemberships, forgetSession, forgetUserSessions } from "./session-cache";
 
 export const API_KEY_PREFIX = "psk_";
 
@@ -40,8 +42,20 @@ export function createAuth(extraPlugins: BetterAuthPlugin[] = [], options: { sen
         "/request-password-reset": { window: 60, max: 5 },
       },
     },
+    // Route handlers cache sessions and memberships in-process (lib/auth/session-cache.ts): every change forgets them here.
+    hooks: {
+      after: createAuthMiddleware(async (context) => {
+        if (context.path.startsWith("/organization/")) forgetMemberships();
+      }),
+    },
     databaseHooks: {
+      user: {
+        update: { after: async (user) => forgetUserSessions(user.id) },
+        delete: { after: async (user) => forgetUserSessions(user.id) },
+      },
       session: {
+        update: { after: async (session) => forgetSession(session.token) },
+        delete: { after: async (session) => forgetSession(session.token) },
         create: {
           // A new session opens in the user's first workspace, so every screen has one to show.
           before: async (session) => {

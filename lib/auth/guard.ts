@@ -5,6 +5,7 @@ import { ForbiddenError, RateLimitedError, UnauthorizedError } from "@/lib/error
 import { takeKeyRequest, verifyCachedKey } from "./key-cache";
 import { roleAllows, type Permission } from "./permissions";
 import { getAuth } from "./server";
+import { getCachedMembership, getCachedSession, type CachedSession } from "./session-cache";
 
 /** Who is calling a route handler: a signed-in member, or a workspace's pipeline key. */
 export type Caller =
@@ -74,15 +75,42 @@ export async function authorizeRequest(
       throw new ForbiddenError("State-changing requests with a session must come from the Peeksafe origin.");
     }
   }
-  const session = await getAuth().api.getSession({ headers: request.headers });
+  const session = await authorizeSession(request);
   if (!session) {
     await getPool().query("select 1");
     throw new UnauthorizedError();
   }
-  const workspaceId = options.workspaceId ?? session.session.activeOrganizationId;
+  const workspaceId = options.workspaceId ?? session.activeOrganizationId;
   if (!workspaceId) throw new ForbiddenError("Choose a workspace first.");
-  const membership = await getMembership(workspaceId, session.user.id);
+  const membership = await getCachedMembership(workspaceId, session.userId, () => getMembership(workspaceId, session.userId));
   if (!membership) throw new ForbiddenError();
   if (!roleAllows(membership.role, permission)) throw new ForbiddenError();
-  return { kind: "user", userId: session.user.id, email: session.user.email, workspaceId, role: membership.role };
+  return { kind: "user", userId: session.userId, email: session.email, workspaceId, role: membership.role };
+}
+
+function cookieValue(request: Request, name: string): string | null {
+  for (const part of (request.headers.get("cookie") ?? "").split(";")) {
+    const index = part.indexOf("=");
+    if (index > 0 && part.slice(0, index).trim() === name) {
+      try {
+        return decodeURIComponent(part.slice(index + 1).trim());
+      } catch {
+        return null;
+      }
+    }
+  }
+  return null;
+}
+
+// Polls skip better-auth's lookup within the cache TTL; its hooks forget a session that signs out or changes.
+async function authorizeSession(request: Request): Promise<CachedSession | null> {
+  const auth = getAuth();
+  const signed = cookieValue(request, (await auth.$context).authCookies.sessionToken.name);
+  if (!signed) return null;
+  return getCachedSession(signed, async () => {
+    const found = await auth.api.getSession({ headers: request.headers });
+    if (!found) return null;
+    const { session, user } = found;
+    return { token: session.token, userId: user.id, email: user.email, activeOrganizationId: session.activeOrganizationId ?? null, expiresAt: new Date(session.expiresAt).getTime() };
+  });
 }

@@ -22,13 +22,15 @@ export const KEY_CACHE_MAX_ENTRIES = 1_000;
 interface KeyCacheState {
   byHash: Map<string, CachedApiKey>;
   windows: Map<string, { startedAt: number; count: number }>;
+  // Bumped by every forget: a verification that started before a revocation must not store what it read.
+  generation: number;
 }
 
 // On globalThis: route handlers and server actions are separate bundles in one process and must share one cache.
 const globalForKeys = globalThis as unknown as { peeksafeKeyCache?: KeyCacheState };
 
 function state(): KeyCacheState {
-  globalForKeys.peeksafeKeyCache ??= { byHash: new Map(), windows: new Map() };
+  globalForKeys.peeksafeKeyCache ??= { byHash: new Map(), windows: new Map(), generation: 0 };
   return globalForKeys.peeksafeKeyCache;
 }
 
@@ -76,14 +78,16 @@ function remember<V>(map: Map<string, V>, key: string, value: V): void {
  * indexed read by hash. Null for unknown, revoked (disabled) or expired keys.
  */
 export async function verifyCachedKey(key: string, now = Date.now()): Promise<CachedApiKey | null> {
-  const { byHash } = state();
+  const cache = state();
+  const { byHash } = cache;
   const hash = hashApiKey(key);
   let entry = byHash.get(hash);
   if (!entry || now - entry.loadedAt >= KEY_CACHE_TTL_MS) {
     byHash.delete(hash);
+    const generation = cache.generation;
     const loaded = await loadKey(hash, now);
     if (!loaded) return null;
-    remember(byHash, hash, loaded);
+    if (cache.generation === generation) remember(byHash, hash, loaded);
     entry = loaded;
   }
   if (entry.expiresAt && entry.expiresAt.getTime() <= now) return null;
@@ -109,6 +113,8 @@ export function takeKeyRequest(entry: CachedApiKey, now = Date.now()): number | 
 
 /** Forgets a key in this process at once (called when it is revoked). */
 export function forgetApiKey(keyId: string): void {
-  const { byHash } = state();
+  const cache = state();
+  cache.generation += 1;
+  const { byHash } = cache;
   for (const [hash, entry] of byHash) if (entry.id === keyId) byHash.delete(hash);
 }
