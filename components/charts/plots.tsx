@@ -2,8 +2,10 @@
 
 import { Area, CartesianGrid, ComposedChart, Line, LineChart, ReferenceDot, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatCount, formatP, formatPercent } from "@/components/dashboard/format";
+import { P_TICKS, type LinearAxis } from "./scales";
 
 // The drawing half of each chart: the only module that imports recharts, loaded in its own chunk (./lazy-plots).
+// Axes come computed (./scales) so they match the still drawing shown before this chunk runs.
 
 const axisTick = { fill: "var(--axis)", fontSize: 12 };
 const margin = { top: 8, right: 12, bottom: 4, left: 4 };
@@ -16,13 +18,13 @@ export interface LiftPoint {
   ciHigh: number | null;
 }
 
-export function LiftPlot({ data, mde, digits, text }: { data: LiftPoint[]; mde: number | null; digits: number; text: (value: number | null | undefined) => string }) {
+export function LiftPlot({ data, mde, digits, text, y, xTicks }: { data: LiftPoint[]; mde: number | null; digits: number; text: (value: number | null | undefined) => string; y: LinearAxis; xTicks: string[] }) {
   return (
     <ResponsiveContainer width="100%" height="100%">
       <ComposedChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-        <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" minTickGap={24} />
-        <YAxis tick={axisTick} stroke="var(--grid)" width={56} tickFormatter={(value: number) => value.toFixed(Math.min(digits, 1))} />
+        <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} />
+        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tick={axisTick} stroke="var(--grid)" width={56} tickFormatter={(value: number) => value.toFixed(Math.min(digits, 1))} />
         <Tooltip
           contentStyle={{ background: "var(--tooltip-bg, #fff)", borderColor: "var(--grid)", fontSize: 12 }}
           formatter={(value, name) => [Array.isArray(value) ? `${text(value[0] as number)} to ${text(value[1] as number)}` : text(value as number), String(name)]}
@@ -45,22 +47,24 @@ export function PValuePlot({
   alpha,
   floor,
   stop,
+  xTicks,
 }: {
   data: { date: string; sequential: number | null; naive: number | null }[];
   alpha: number;
   floor: number;
   stop: { date: string; p: number } | null;
+  xTicks: string[];
 }) {
   return (
     <ResponsiveContainer width="100%" height="100%">
       <ComposedChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-        <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" minTickGap={24} />
+        <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} />
         <YAxis
           scale="log"
           domain={[floor, 1]}
           allowDataOverflow
-          ticks={[1e-6, 1e-4, 0.01, 0.05, 1]}
+          ticks={P_TICKS}
           tickFormatter={(value: number) => (value >= 0.01 ? String(value) : value.toExponential(0))}
           tick={axisTick}
           stroke="var(--grid)"
@@ -76,13 +80,13 @@ export function PValuePlot({
   );
 }
 
-export function PeekingCostPlot({ data, alpha }: { data: { look: number; cost: number }[]; alpha: number }) {
+export function PeekingCostPlot({ data, alpha, y, xTicks }: { data: { look: number; cost: number }[]; alpha: number; y: LinearAxis; xTicks: number[] }) {
   return (
     <ResponsiveContainer width="100%" height="100%">
       <ComposedChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-        <XAxis dataKey="look" tick={axisTick} stroke="var(--grid)" label={{ value: "looks", position: "insideBottomRight", offset: -2, fill: "var(--axis)", fontSize: 11 }} />
-        <YAxis domain={[0, (max: number) => Math.max(0.1, Math.ceil(max * 20) / 20)]} tickFormatter={(value: number) => `${Math.round(value * 100)} %`} tick={axisTick} stroke="var(--grid)" width={48} />
+        <XAxis dataKey="look" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} label={{ value: "looks", position: "insideBottomRight", offset: -2, fill: "var(--axis)", fontSize: 11 }} />
+        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tickFormatter={(value: number) => `${Math.round(value * 100)} %`} tick={axisTick} stroke="var(--grid)" width={48} />
         <Tooltip formatter={(value) => [formatPercent(value as number, 2), "False-positive rate"]} labelFormatter={(label) => `Look ${label}`} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
         <ReferenceLine y={alpha} stroke="var(--alpha)" strokeDasharray="6 3" />
         <Line dataKey="cost" name="False-positive rate" stroke="var(--holdout)" strokeWidth={2} dot={false} isAnimationActive={false} />
@@ -91,13 +95,23 @@ export function PeekingCostPlot({ data, alpha }: { data: { look: number; cost: n
   );
 }
 
-export function CountsPlot({ data, lines }: { data: Record<string, string | number | null>[]; lines: { key: string; name: string; colour: string; dash?: string }[] }) {
+export function CountsPlot({
+  data,
+  lines,
+  y,
+  xTicks,
+}: {
+  data: Record<string, string | number | null>[];
+  lines: { key: string; name: string; colour: string; dash?: string }[];
+  y: LinearAxis;
+  xTicks: string[];
+}) {
   return (
     <ResponsiveContainer width="100%" height="100%">
       <LineChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
-        <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" minTickGap={24} />
-        <YAxis tickFormatter={(value: number) => (value >= 1000 ? `${Math.round(value / 1000)}k` : String(value))} tick={axisTick} stroke="var(--grid)" width={52} />
+        <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} />
+        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tickFormatter={(value: number) => (value >= 1000 ? `${Math.round(value / 1000)}k` : String(value))} tick={axisTick} stroke="var(--grid)" width={52} />
         <Tooltip formatter={(value, name) => [formatCount(value as number), String(name)]} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
         {lines.map((line) => (
           <Line key={line.key} dataKey={line.key} name={line.name} stroke={`var(${line.colour})`} strokeDasharray={line.dash} strokeWidth={2} dot={false} isAnimationActive={false} />
