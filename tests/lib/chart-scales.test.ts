@@ -28,3 +28,22 @@ describe("chart scales", () => {
     expect(axisFraction(1e-9, [1e-6, 1], "log")).toBe(0);
   });
 });
+
+describe("still plot", () => {
+  it("draws every finite point of each line in the server HTML, breaking the line at gaps", async () => {
+    const { createElement } = await import("react");
+    const { renderToStaticMarkup } = await import("react-dom/server");
+    const { StillPlot } = await import("@/components/charts/static-plot");
+    const html = renderToStaticMarkup(
+      createElement(StillPlot, {
+        label: "Lift over time",
+        points: 4,
+        xTicks: [{ index: 0, text: "2026-09-01" }],
+        y: { domain: [0, 10], ticks: [0, 5, 10], format: String, width: 56 },
+        lines: [{ values: [0, 5, null, 10], colour: "--treatment", width: 2 }],
+      }),
+    );
+    expect(html).toContain('role="img" aria-label="Lift over time"');
+    expect(html).toContain('d="M0.0,1000.0L333.3,500.0M1000.0,0.0"');
+  });
+});
