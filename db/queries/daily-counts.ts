@@ -1,6 +1,7 @@
 import { asc, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db";
 import { arms, dailyCounts } from "@/db/schema";
+import { dayNumber } from "@/lib/sequential/day-number";
 import type { Executor, Transaction } from "./campaigns";
 
 /** The part of a stored count the cumulative check reads. */
@@ -66,12 +67,13 @@ export interface CountBatchTally {
  * ones alone, and records the batch with its answer. Each (arm, day) appears at most once in `rows`.
  */
 export async function storeCountBatch(tx: Transaction, batch: CountBatch, rows: CountWrite[]): Promise<CountBatchTally> {
-  const column = <K extends keyof CountWrite>(key: K) => sql.param(rows.map((row) => row[key]));
+  const parameters = compactRows(rows);
   const result = await tx.execute<{ accepted: number; replaced: number; changedCampaignIds: string[] | null }>(sql`
     with input as (
-      select * from unnest(${column("campaignId")}::uuid[], ${column("armId")}::uuid[], ${column("day")}::date[],
-        ${column("units")}::integer[], ${column("sum")}::float8[], ${column("sumSquares")}::float8[])
-        as input (campaign_id, arm_id, day, units, sum, sum_squares)
+      select (${sql.param(parameters.campaignIds)}::uuid[])[input.arm] as campaign_id, (${sql.param(parameters.armIds)}::uuid[])[input.arm] as arm_id,
+        ${parameters.firstDay}::date + input.day as day, input.units, input.sum, input.sum_squares
+      from unnest(${sql.param(parameters.arm)}::integer[], ${sql.param(parameters.day)}::integer[], ${sql.param(parameters.units)}::integer[],
+        ${sql.param(parameters.sum)}::float8[], ${sql.param(parameters.sumSquares)}::float8[]) as input (arm, day, units, sum, sum_squares)
     ),
     revisions as (
       insert into daily_count_revisions (daily_count_id, campaign_id, arm_id, day, revision, units, sum, sum_squares, source, batch_id, replaced_by_batch_id)
@@ -106,4 +108,30 @@ export async function storeCountBatch(tx: Transaction, batch: CountBatch, rows: 
   `);
   const [tally] = result.rows;
   return { accepted: tally.accepted, replaced: tally.replaced, unchanged: rows.length - tally.accepted - tally.replaced, changedCampaignIds: tally.changedCampaignIds ?? [] };
+}
+
+/**
+ * The rows as short parameters: each arm's ids once and a 1-based position per row, each day as days
+ * after the batch's first day. Uuid and date arrays of every row were most of the bytes sent and parsed.
+ */
+function compactRows(rows: CountWrite[]) {
+  const positions = new Map<string, number>();
+  const armIds: string[] = [];
+  const campaignIds: string[] = [];
+  let firstDay = rows[0]?.day ?? "1970-01-01";
+  for (const row of rows) if (row.day < firstDay) firstDay = row.day;
+  const first = dayNumber(firstDay)!;
+  const arm: number[] = [];
+  const day: number[] = [];
+  for (const row of rows) {
+    let position = positions.get(row.armId);
+    if (position === undefined) {
+      position = armIds.push(row.armId);
+      campaignIds.push(row.campaignId);
+      positions.set(row.armId, position);
+    }
+    arm.push(position);
+    day.push(dayNumber(row.day)! - first);
+  }
+  return { armIds, campaignIds, firstDay, arm, day, units: rows.map((row) => row.units), sum: rows.map((row) => row.sum), sumSquares: rows.map((row) => row.sumSquares) };
 }

@@ -1,10 +1,10 @@
 import { randomUUID } from "node:crypto";
-import { eq } from "drizzle-orm";
+import { eq, inArray } from "drizzle-orm";
 import { inject } from "vitest";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db";
 import type { CampaignDto } from "@/db/queries/campaigns";
-import { campaigns, dailyCountRevisions, dailyCounts, ingestBatches } from "@/db/schema";
+import { arms, campaigns, dailyCountRevisions, dailyCounts, ingestBatches } from "@/db/schema";
 import { createApiKey, createWorkspaceWithRoles, type TestWorkspace } from "../factories";
 import { countRow, createCampaign, dayFromToday, dumpProductTables, meanCampaignBody, pushCounts } from "../factories-campaigns";
 
@@ -103,6 +103,24 @@ describe("POST /api/v1/ingest: accepted batches", () => {
     );
     const counts = [...(await countsOf(first.id)), ...(await countsOf(second.id))];
     expect(counts.map((count) => [count.units, count.sum, count.revision]).sort()).toEqual([[100, 5, 0], [901, 40, 1], [200, 8, 1], [800, 30, 0], [150, 6, 0]].sort());
+  });
+
+  it("stores each row under its own campaign, arm and day when a batch mixes them out of order, and so do the revisions", async () => {
+    const [first, second] = await Promise.all([createCampaign(northwind, { startDate: day(-8) }), createCampaign(northwind, { startDate: day(-8) })]);
+    const armIds = new Map((await getDb().select({ id: arms.id, campaignId: arms.campaignId, key: arms.key }).from(arms)).map((arm) => [`${arm.campaignId}|${arm.key}`, arm.id]));
+    const sent = [first, second].flatMap((campaign, c) =>
+      ["treatment", "holdout"].flatMap((arm, a) => [-1, -7, -3, -8].map((offset) => ({ campaign, arm, offset, units: 1000 * (c + 1) + 100 * a - offset }))),
+    );
+    const rowsOf = (bump: number) => sent.map((row) => countRow(row.campaign.id, row.arm, day(row.offset), row.units + bump, 1));
+    expect((await pushCounts(key, rowsOf(0))).body).toMatchObject({ accepted: 16, replaced: 0 });
+    const expected = (bump: number) => sent.map((row) => [row.campaign.id, armIds.get(`${row.campaign.id}|${row.arm}`), day(row.offset), row.units + bump]).sort();
+    const stored = async () => (await getDb().select().from(dailyCounts).where(inArray(dailyCounts.campaignId, [first.id, second.id]))).map((row) => [row.campaignId, row.armId, row.day, row.units]).sort();
+    expect(await stored()).toEqual(expected(0));
+    const resent = await pushCounts(key, rowsOf(5));
+    expect(resent.body).toMatchObject({ accepted: 0, replaced: 16 });
+    expect(await stored()).toEqual(expected(5));
+    const revisions = await getDb().select().from(dailyCountRevisions).where(eq(dailyCountRevisions.replacedByBatchId, resent.body.batchId as string));
+    expect(revisions.map((row) => [row.campaignId, row.armId, row.day, row.units]).sort()).toEqual(expected(0));
   });
 
   it("stores a mean metric's units, sum and sum of squares", async () => {
