@@ -5,7 +5,7 @@ import { getPool } from "@/db";
 import { listCampaignsToRecompute, type AnalysisInputs } from "@/db/queries/analysis";
 import { queueAlert } from "@/db/queries/alerts";
 import {
-  analysisDaysCopyChunk,
+  AnalysisDaysCopyText,
   lockAnalysisInputsBatch,
   markCampaignsAnalyzed,
   replaceAnalysisDaysBatch,
@@ -103,7 +103,7 @@ async function recomputeGroup(campaignIds: string[], options: { force?: boolean;
       const inputsById = await lockAnalysisInputsBatch(tx, client, campaignIds);
       const unchanged: string[] = [];
       const written: string[] = [];
-      const chunks: Buffer[] = [];
+      const copyText = new AnalysisDaysCopyText();
       const marks: { campaignId: string; call: CallName; inputsHash: string }[] = [];
       const alerts: { at: number; day: string; call: CallName; fromCall: CallName; snapshot: AlertSnapshot }[] = [];
       for (const campaignId of campaignIds) {
@@ -126,7 +126,7 @@ async function recomputeGroup(campaignIds: string[], options: { force?: boolean;
           const rows = analysisRows(campaignId, analysis, inputsHash, plan.sides);
           const last = analysis.days.at(-1);
           const call: CallName = last?.call ?? "collecting";
-          chunks.push(analysisDaysCopyChunk(rows));
+          copyText.append(rows);
           written.push(campaignId);
           marks.push({ campaignId, call, inputsHash });
           // The snapshot now, not the analysis: the group keeps only its rows until the COPY.
@@ -138,7 +138,8 @@ async function recomputeGroup(campaignIds: string[], options: { force?: boolean;
           computeMs += performance.now() - begun;
         }
       }
-      await replaceAnalysisDaysBatch(client, written, chunks);
+      await replaceAnalysisDaysBatch(client, written, copyText.chunks());
+      copyText.release();
       for (const { at, day, call, fromCall, snapshot } of alerts) {
         const { outcome } = computed[at];
         outcome.alertId = await queueAlert(tx, { campaignId: outcome.campaignId, kind: call, fromCall, day, snapshot });

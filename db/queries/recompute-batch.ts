@@ -103,12 +103,53 @@ export async function lockAnalysisInputsBatch(tx: Transaction, client: PoolClien
  */
 export function analysisDaysCopyChunk(days: readonly AnalysisDayColumns[]): Buffer {
   let text = "";
-  for (const day of days) {
-    text += `${day.campaignId}\t${day.day}\t${day.daysRun}\t${day.call}`;
-    for (const value of day.numbers) text += value === null || value === undefined ? "\t\\N" : `\t${value}`;
-    text += `\t${copyText(day.healthJson)}\t${copyText(day.detailJson)}\t${day.inputsHash}\n`;
-  }
+  for (const day of days) text += analysisDayLine(day);
   return Buffer.from(text, "utf8");
+}
+
+/** Spare buffers of finished groups, so a pass reuses a few instead of leaving one per campaign to the collector. */
+const spareBuffers: Buffer[] = [];
+const SPARE_BUFFERS = 4;
+
+/**
+ * A group's COPY text for {@link replaceAnalysisDaysBatch}, encoded line by line into one buffer
+ * taken from a small pool: no per-campaign string or Buffer lives until the COPY. Call `release`
+ * once the COPY has finished (never while it may still be writing).
+ */
+export class AnalysisDaysCopyText {
+  private buffer: Buffer = spareBuffers.pop() ?? Buffer.allocUnsafeSlow(1 << 20);
+  private length = 0;
+
+  /** Appends the COPY lines of these analysis days. */
+  append(days: readonly AnalysisDayColumns[]): void {
+    for (const day of days) {
+      const line = analysisDayLine(day);
+      // UTF-8 needs at most 3 bytes per UTF-16 code unit.
+      if (this.length + 3 * line.length > this.buffer.length) {
+        const grown = Buffer.allocUnsafeSlow(Math.max(2 * this.buffer.length, this.length + 3 * line.length));
+        this.buffer.copy(grown, 0, 0, this.length);
+        this.buffer = grown;
+      }
+      this.length += this.buffer.write(line, this.length, "utf8");
+    }
+  }
+
+  /** The text so far (a view of the pooled buffer, valid until `release`). */
+  chunks(): Buffer[] {
+    return this.length === 0 ? [] : [this.buffer.subarray(0, this.length)];
+  }
+
+  /** Gives the buffer back to the pool; the text must not be used afterwards. */
+  release(): void {
+    if (spareBuffers.length < SPARE_BUFFERS) spareBuffers.push(this.buffer);
+    this.length = 0;
+  }
+}
+
+function analysisDayLine(day: AnalysisDayColumns): string {
+  let line = `${day.campaignId}\t${day.day}\t${day.daysRun}\t${day.call}`;
+  for (const value of day.numbers) line += value === null || value === undefined ? "\t\\N" : `\t${value}`;
+  return `${line}\t${copyText(day.healthJson)}\t${copyText(day.detailJson)}\t${day.inputsHash}\n`;
 }
 
 /**
