@@ -98,7 +98,7 @@ export function summarize(profile: CpuProfile): { busyMs: number; self: [string,
   }
   const share = (entries: Map<string, number>) =>
     [...entries].sort((a, b) => b[1] - a[1]).map(([name, ms]) => [name, Math.round((ms / busy) * 1000) / 10] as [string, number]);
-  return { busyMs: Math.round(busy), self: share(self).slice(0, 25), owners: share(owners).slice(0, 12) };
+  return { busyMs: Math.round(busy), self: share(self).slice(0, 25), owners: share(owners).slice(0, 20) };
 }
 
 function printProfile(dir: string): void {
