@@ -8,6 +8,7 @@ import { listMemberships } from "@/db/queries/members";
 import * as schema from "@/db/schema";
 import { getEnv } from "@/lib/env";
 import { sendInvitationMail, sendPasswordResetMail, sendVerificationMail } from "@/lib/mail/account-mail";
+import { createAuthLog } from "./auth-logger";
 import { KEY_PERMISSIONS, accessControl, roles } from "./permissions";
 import { forgetMemberships, forgetSession, forgetUserSessions } from "./session-cache";
 
@@ -25,6 +26,7 @@ export function createAuth(extraPlugins: BetterAuthPlugin[] = [], options: { sen
     baseURL: env.APP_URL,
     secret: env.BETTER_AUTH_SECRET,
     trustedOrigins: [env.APP_URL],
+    logger: { level: "warn", log: createAuthLog() },
     database: drizzleAdapter(getDb(), { provider: "pg", schema, usePlural: true }),
     advanced: {
       useSecureCookies: secure,
