@@ -100,7 +100,11 @@ function seriesDays(campaign: PlannedCampaign, stored: StoredAnalysis | null): S
 
 /** Every day of the worker's stored analysis, with the issues found up to that day (empty before the first analysis). */
 export async function campaignSeries(campaign: CampaignDto): Promise<CampaignSeries> {
-  const stored = await getStoredAnalysis(campaign.id);
+  return seriesFromStored(campaign, await getStoredAnalysis(campaign.id));
+}
+
+/** The series from a stored analysis already read (the campaign page reads it once for the status and the series). */
+export function seriesFromStored(campaign: CampaignDto, stored: StoredAnalysis | null): CampaignSeries {
   return { id: campaign.id, name: campaign.name, days: seriesDays(campaign, stored), ...freshness(stored) };
 }
 

@@ -11,13 +11,13 @@ import type { PeekingLook } from "@/components/charts/peeking-cost-chart";
 import { CampaignDashboard } from "@/components/dashboard/campaign-dashboard";
 import { DecisionPanel } from "@/components/decisions/decision-panel";
 import { Badge, Card, CardHeader, EmptyState, Notice, Td, Th } from "@/components/ui";
-import { listAnalysisDays } from "@/db/queries/analysis";
+import { getStoredAnalysis, listAnalysisDays } from "@/db/queries/analysis";
 import { getCampaign } from "@/db/queries/campaigns";
 import { listDailyCounts } from "@/db/queries/daily-counts";
 import { listAlertHistory, listDecisions } from "@/db/queries/decisions";
 import { roleAllows } from "@/lib/auth/permissions";
 import { requirePageRole } from "@/lib/auth/session";
-import { campaignSeries, campaignStatus } from "@/lib/campaigns/campaign-status";
+import { seriesFromStored, statusFromStored } from "@/lib/campaigns/campaign-status";
 import { LIFECYCLE_MOVES, STATUS_LABELS } from "@/lib/campaigns/lifecycle";
 import { HEALTH_DEFAULTS } from "@/lib/sequential";
 import { campaignSeriesKey, campaignStatusKey } from "@/lib/hooks/campaign-keys";
@@ -34,14 +34,15 @@ export default async function CampaignPage({ params }: { params: Promise<{ id: s
   const { id } = await params;
   const campaign = await getCampaign(membership.workspaceId, decodeURIComponent(id));
   if (!campaign) notFound();
-  const [counts, status, series, analysisDays, decisions, alerts] = await Promise.all([
+  const [counts, stored, analysisDays, decisions, alerts] = await Promise.all([
     listDailyCounts(campaign.id),
-    campaignStatus(campaign),
-    campaignSeries(campaign),
+    getStoredAnalysis(campaign.id),
     listAnalysisDays(campaign.id),
     listDecisions(membership.workspaceId, campaign.id),
     listAlertHistory(membership.workspaceId, campaign.id),
   ]);
+  const status = statusFromStored(campaign, stored);
+  const series = seriesFromStored(campaign, stored);
   const canDecide = roleAllows(membership.role, { decision: ["record"] });
   const canRecompute = roleAllows(membership.role, { campaign: ["recompute"] });
   const canUpload = roleAllows(membership.role, { campaign: ["upload"] }) && campaign.status !== "archived";
