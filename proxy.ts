@@ -5,8 +5,9 @@ import { malformedActionCallProblem, malformedPathProblem } from "@/lib/http/req
 
 const PUBLIC_PAGES = /^\/(?:api|_next|sign-in|sign-up|forgot-password|reset-password|verify-email|invitations|unsubscribe|docs|icon\.svg|logo\.svg|favicon\.ico)(?:\/|$)/;
 
-// A cookie-presence redirect for pages, and a 4xx for requests Next would answer with a bare 500; every
-// handler and action authorizes for itself.
+// A cookie-presence redirect for pages, and a 4xx for requests Next would answer with a bare 500 (this is
+// the only code of ours that runs before Next's router and its action decoder). It is never the
+// authorization: every handler and action authorizes for itself.
 export async function proxy(request: NextRequest) {
   const { pathname } = request.nextUrl;
   const badPath = malformedPathProblem(pathname);
