@@ -3,6 +3,7 @@ import { spawn, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
+import { WORKER_V8_FLAGS } from "../cron/config";
 import { buildApp, buildIsStale, startApp, type RunningApp } from "./lib/app-server";
 import { startMailCatcher, type MailCatcher } from "./lib/mail-catcher";
 import { migrateDatabase } from "./lib/migrate";
@@ -72,7 +73,7 @@ async function main() {
   let restarts = 0;
   // The worker is supervised: if it dies (database away, a bad schedule), say so and start it again.
   const startWorker = () => {
-    worker = spawn("node_modules/.bin/tsx", ["cron/index.ts"], { env, stdio: "inherit" });
+    worker = spawn(process.execPath, [...WORKER_V8_FLAGS, "--import", "tsx", "cron/index.ts"], { env, stdio: "inherit" });
     const startedAt = Date.now();
     worker.on("exit", (code, signal) => {
       if (stopping) return;

@@ -1,3 +1,4 @@
+import { WORKER_V8_FLAGS } from "../../../cron/config";
 import { spawn, type ChildProcess } from "node:child_process";
 import { startApp, type RunningApp } from "../../../scripts/lib/app-server";
 import { startMailCatcher, type MailCatcher } from "../../../scripts/lib/mail-catcher";
@@ -101,7 +102,7 @@ export async function startFaultStack(options: { distDir: string; reuseBuild?: b
 /** One process (node with the tsx loader), so a SIGKILL really kills the worker and its connections. */
 function spawnWorkerProcess(args: string[], env: NodeJS.ProcessEnv): WorkerProcess {
   const clean = Object.fromEntries(Object.entries(env).filter(([name]) => name !== "TEST" && !name.startsWith("VITEST"))) as NodeJS.ProcessEnv;
-  const child: ChildProcess = spawn(process.execPath, ["--import", "tsx", "cron/index.ts", ...args], { env: clean, stdio: ["ignore", "pipe", "pipe"] });
+  const child: ChildProcess = spawn(process.execPath, [...WORKER_V8_FLAGS, "--import", "tsx", "cron/index.ts", ...args], { env: clean, stdio: ["ignore", "pipe", "pipe"] });
   const lines: Record<string, unknown>[] = [];
   let buffer = "";
   child.stdout!.on("data", (chunk: Buffer) => {
