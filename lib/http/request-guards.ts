@@ -103,3 +103,28 @@ export async function malformedActionCallProblem(request: Request): Promise<Prob
   if (body.byteLength > ACTION_BODY_LIMIT_BYTES) return tooLarge;
   return readRoot(new TextDecoder().decode(body), false);
 }
+
+const JSON_NUL = /\\u0000/i;
+
+/**
+ * The problem for a request to better-auth's endpoints that carries a NUL character (in the query, a JSON
+ * body or a form body): PostgreSQL refuses NUL in text, and better-auth answers that with a 500.
+ * @returns the problem to answer with, or null to pass the request on
+ */
+export async function nulCharacterProblem(request: Request): Promise<Problem | null> {
+  const problem: Problem = {
+    type: `${PROBLEM_TYPE_BASE}invalid-input`,
+    title: "Invalid input",
+    status: 400,
+    detail: "The request contains a NUL character, which no field accepts.",
+  };
+  const url = new URL(request.url);
+  for (const [name, value] of url.searchParams) if (name.includes("\0") || value.includes("\0")) return problem;
+  if (request.method === "GET" || request.method === "HEAD" || !request.body) return null;
+  const text = await request.clone().text();
+  if (text.includes("\0") || JSON_NUL.test(text)) return problem;
+  if ((request.headers.get("content-type") ?? "").startsWith("application/x-www-form-urlencoded")) {
+    for (const [name, value] of new URLSearchParams(text)) if (name.includes("\0") || value.includes("\0")) return problem;
+  }
+  return null;
+}

@@ -38,4 +38,16 @@ describe("fuzzing every REST route's parameters and bodies", () => {
     expect(response.headers.get("content-type")).toMatch(/application\/problem\+json/);
     expect(await response.json()).toMatchObject({ title: "Malformed address", status: 400, instance: address });
   });
+
+  // Found by hand after the soak: better-auth's own endpoints passed a NUL to PostgreSQL and answered 500.
+  it.each([
+    ["POST", "/api/auth/organization/set-active", '{"organizationId":"\\u0000"}'],
+    ["POST", "/api/auth/update-user", '{"name":"a\\u0000b"}'],
+    ["POST", "/api/auth/organization/check-slug", '{"slug":"\\u0000"}'],
+    ["GET", "/api/auth/organization/list-members?organizationId=%00", undefined],
+  ])("answers %s %s with a NUL in it with a 400 problem, signed in", async (method, address, body) => {
+    const response = await world.northwind.admin.client.fetch(address, { method, body, headers: body ? { "content-type": "application/json" } : {} });
+    expect(response.status).toBe(400);
+    expect(await response.json()).toMatchObject({ title: "Invalid input", status: 400 });
+  });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ACTION_BODY_LIMIT_BYTES, malformedActionCallProblem, malformedPathProblem } from "@/lib/http/request-guards";
+import { ACTION_BODY_LIMIT_BYTES, malformedActionCallProblem, malformedPathProblem, nulCharacterProblem } from "@/lib/http/request-guards";
 
 // The requests Next.js would answer with a bare 500 (found by `npm run soak:fuzz`, issue 7): they must get a
 // 4xx problem from proxy.ts, and every request a browser of ours sends must pass untouched.
@@ -51,5 +51,26 @@ describe("malformedActionCallProblem", () => {
     const big = JSON.stringify(["x".repeat(ACTION_BODY_LIMIT_BYTES)]);
     expect(await malformedActionCallProblem(actionCall(big, "text/plain;charset=UTF-8"))).toMatchObject({ status: 413 });
     expect(await malformedActionCallProblem(actionCall("[]", "text/plain;charset=UTF-8", { "content-length": String(ACTION_BODY_LIMIT_BYTES + 1) }))).toMatchObject({ status: 413 });
+  });
+});
+
+describe("nulCharacterProblem", () => {
+  const post = (body: string, contentType = "application/json") => new Request("http://127.0.0.1/api/auth/organization/set-active", { method: "POST", body, headers: { "content-type": contentType } });
+
+  it.each([
+    ["a JSON body", post('{"organizationId":"\\u0000"}')],
+    ["a JSON body, upper-case escape", post('{"name":"a\\U0000b"}')],
+    ["a raw NUL byte", post('{"name":"a\u0000b"}')],
+    ["a form body", post("email=%00&password=x", "application/x-www-form-urlencoded")],
+    ["the query", new Request("http://127.0.0.1/api/auth/organization/list-members?organizationId=%00")],
+  ])("refuses a NUL in %s with a 400", async (_where, request) => {
+    expect(await nulCharacterProblem(request)).toMatchObject({ status: 400, title: "Invalid input" });
+  });
+
+  it("lets ordinary calls through and leaves the body readable for better-auth", async () => {
+    const request = post('{"email":"lead@northwind.example","password":"100%00 sure"}');
+    expect(await nulCharacterProblem(request)).toBeNull();
+    expect(await request.json()).toMatchObject({ email: "lead@northwind.example" });
+    expect(await nulCharacterProblem(new Request("http://127.0.0.1/api/auth/get-session"))).toBeNull();
   });
 });

@@ -1,12 +1,20 @@
 import { toNextJsHandler } from "better-auth/next-js";
 import { getAuth } from "@/lib/auth/server";
+import { problemResponse } from "@/lib/http/problem";
+import { nulCharacterProblem } from "@/lib/http/request-guards";
 
 export const dynamic = "force-dynamic";
 
+// better-auth's own endpoints pass strings to PostgreSQL as they come; a NUL there is a 500, so refuse it first.
+async function guarded(request: Request, handle: (request: Request) => Promise<Response>): Promise<Response> {
+  const problem = await nulCharacterProblem(request);
+  return problem ? problemResponse({ ...problem, instance: new URL(request.url).pathname }) : handle(request);
+}
+
 export async function GET(request: Request) {
-  return toNextJsHandler(getAuth()).GET(request);
+  return guarded(request, toNextJsHandler(getAuth()).GET);
 }
 
 export async function POST(request: Request) {
-  return toNextJsHandler(getAuth()).POST(request);
+  return guarded(request, toNextJsHandler(getAuth()).POST);
 }
