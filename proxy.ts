@@ -1,8 +1,9 @@
 import { getSessionCookie } from "better-auth/cookies";
 import { NextResponse, type NextRequest } from "next/server";
-import { problemResponse } from "@/lib/http/problem";
+import { toResponse } from "@/lib/http/problem";
 import { malformedActionCallProblem, malformedPathProblem } from "@/lib/http/request-guards";
 
+// The pages the first matcher below leaves out (Next needs the matcher as a literal, so the list stands twice).
 const PUBLIC_PAGES = /^\/(?:api|_next|sign-in|sign-up|forgot-password|reset-password|verify-email|invitations|unsubscribe|docs|icon\.svg|logo\.svg|favicon\.ico)(?:\/|$)/;
 
 // A cookie-presence redirect for pages, and a 4xx for requests Next would answer with a bare 500 (this is
@@ -11,7 +12,7 @@ const PUBLIC_PAGES = /^\/(?:api|_next|sign-in|sign-up|forgot-password|reset-pass
 export async function proxy(request: NextRequest) {
   const { pathname } = request.nextUrl;
   const badPath = malformedPathProblem(pathname);
-  if (badPath) return problemResponse({ ...badPath, instance: pathname });
+  if (badPath) return toResponse(badPath, pathname);
   if (PUBLIC_PAGES.test(pathname)) return NextResponse.next();
   if (!getSessionCookie(request)) {
     const url = new URL("/sign-in", request.url);
@@ -20,7 +21,7 @@ export async function proxy(request: NextRequest) {
   }
   if (request.method === "POST" && request.headers.has("next-action")) {
     const badCall = await malformedActionCallProblem(request);
-    if (badCall) return problemResponse({ ...badCall, instance: pathname });
+    if (badCall) return toResponse(badCall, pathname);
   }
   return NextResponse.next();
 }

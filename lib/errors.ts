@@ -29,6 +29,13 @@ export class NotFoundError extends DomainError {
   }
 }
 
+/** A request that cannot be read at all (an address, a body or a call in no form we accept), with its own title. */
+export class BadRequestError extends DomainError {
+  constructor(message: string, title: string) {
+    super(message, 400, title);
+  }
+}
+
 export class ConflictError extends DomainError {
   constructor(message: string, extra: Record<string, unknown> = {}) {
     super(message, 409, "Conflict", extra);

@@ -1,5 +1,5 @@
 import { ZodError } from "zod";
-import { BusyError, DomainError, RateLimitedError, type FieldProblem } from "@/lib/errors";
+import { BadRequestError, BusyError, DomainError, PayloadTooLargeError, RateLimitedError, type FieldProblem } from "@/lib/errors";
 
 /** RFC 9457 problem details. */
 export interface Problem {
@@ -107,25 +107,17 @@ function describe(error: unknown): string {
 /** Parses a JSON body, turning malformed JSON into a 400 problem rather than a 500. */
 export async function readJson(request: Request, maxBytes: number): Promise<unknown> {
   const length = Number(request.headers.get("content-length") ?? "0");
-  if (length > maxBytes) throw new PayloadTooLarge(maxBytes);
+  if (length > maxBytes) throw bodyTooLarge(maxBytes);
   const text = await readLimited(request, maxBytes);
   try {
     return JSON.parse(text);
   } catch {
-    throw new MalformedJson();
+    throw new BadRequestError("The body is not valid JSON.", "Malformed JSON");
   }
 }
 
-class PayloadTooLarge extends DomainError {
-  constructor(maxBytes: number) {
-    super(`The body is larger than ${maxBytes} bytes.`, 413, "Payload too large");
-  }
-}
-
-class MalformedJson extends DomainError {
-  constructor() {
-    super("The body is not valid JSON.", 400, "Malformed JSON");
-  }
+function bodyTooLarge(maxBytes: number): PayloadTooLargeError {
+  return new PayloadTooLargeError(`The body is larger than ${maxBytes} bytes.`);
 }
 
 async function readLimited(request: Request, maxBytes: number): Promise<string> {
@@ -139,7 +131,7 @@ async function readLimited(request: Request, maxBytes: number): Promise<string> 
     total += value.byteLength;
     if (total > maxBytes) {
       await reader.cancel();
-      throw new PayloadTooLarge(maxBytes);
+      throw bodyTooLarge(maxBytes);
     }
     chunks.push(value);
   }
@@ -147,6 +139,6 @@ async function readLimited(request: Request, maxBytes: number): Promise<string> 
     // Refuse broken UTF-8 rather than store U+FFFD in names: the sender's text was not what it meant.
     return new TextDecoder("utf-8", { fatal: true }).decode(Buffer.concat(chunks));
   } catch {
-    throw new DomainError("The body is not valid UTF-8.", 400, "Malformed JSON");
+    throw new BadRequestError("The body is not valid UTF-8.", "Malformed JSON");
   }
 }

@@ -1,33 +1,26 @@
-import type { Problem } from "./problem";
+import { BadRequestError, PayloadTooLargeError, type DomainError } from "@/lib/errors";
 
 // Requests no browser of ours sends, which Next.js would answer with a bare 500 before any code of ours
 // runs: a path whose percent-encoding does not decode, and a server-action call whose arguments React's
-// reply decoder cannot read. proxy.ts answers them with a 4xx problem instead.
-
-const PROBLEM_TYPE_BASE = "https://peeksafe.local/problems/";
+// reply decoder cannot read. proxy.ts answers them with a 4xx problem (`toResponse`) instead.
 
 /** Next's default limit for a server action's body (`serverActions.bodySizeLimit`, 1 MB). */
 export const ACTION_BODY_LIMIT_BYTES = 1024 * 1024;
 
-/** The problem for a path that is not valid percent-encoded UTF-8, or null when every segment decodes. */
-export function malformedPathProblem(pathname: string): Problem | null {
+/** The error for a path that is not valid percent-encoded UTF-8, or null when every segment decodes. */
+export function malformedPathProblem(pathname: string): DomainError | null {
   for (const segment of pathname.split("/")) {
     try {
       decodeURIComponent(segment);
     } catch {
-      return {
-        type: `${PROBLEM_TYPE_BASE}malformed-address`,
-        title: "Malformed address",
-        status: 400,
-        detail: "The address has a percent-encoding that is not valid UTF-8.",
-      };
+      return new BadRequestError("The address has a percent-encoding that is not valid UTF-8.", "Malformed address");
     }
   }
   return null;
 }
 
-function malformedCall(detail: string): Problem {
-  return { type: `${PROBLEM_TYPE_BASE}malformed-action-call`, title: "Malformed action call", status: 400, detail };
+function malformedCall(detail: string): DomainError {
+  return new BadRequestError(detail, "Malformed action call");
 }
 
 // The reply encoding of plain values and FormData, as React's encodeReply writes them for the arguments our
@@ -59,7 +52,7 @@ function firstUnreadableString(value: unknown, allowFormData: boolean, depth = 0
   return null;
 }
 
-function readRoot(text: string, allowFormData: boolean): Problem | null {
+function readRoot(text: string, allowFormData: boolean): DomainError | null {
   let root: unknown;
   try {
     root = JSON.parse(text);
@@ -74,16 +67,11 @@ function readRoot(text: string, allowFormData: boolean): Problem | null {
 /**
  * Checks a server-action call (a POST with a `Next-Action` header) before Next decodes it: the body fits the
  * action body limit and its arguments are plain JSON values, or FormData, in React's reply encoding.
- * @returns the problem to answer with, or null to let the call through
+ * @returns the error to answer with, or null to let the call through
  */
-export async function malformedActionCallProblem(request: Request): Promise<Problem | null> {
+export async function malformedActionCallProblem(request: Request): Promise<DomainError | null> {
   const declared = Number(request.headers.get("content-length") ?? "0");
-  const tooLarge: Problem = {
-    type: `${PROBLEM_TYPE_BASE}too-large`,
-    title: "Too large",
-    status: 413,
-    detail: `An action call's body may have at most ${ACTION_BODY_LIMIT_BYTES} bytes.`,
-  };
+  const tooLarge = new PayloadTooLargeError(`An action call's body may have at most ${ACTION_BODY_LIMIT_BYTES} bytes.`);
   if (declared > ACTION_BODY_LIMIT_BYTES) return tooLarge;
   const contentType = request.headers.get("content-type") ?? "";
   if (contentType.startsWith("multipart/form-data")) {
@@ -107,17 +95,12 @@ export async function malformedActionCallProblem(request: Request): Promise<Prob
 const JSON_NUL = /\\u0000/i;
 
 /**
- * The problem for a request to better-auth's endpoints that carries a NUL character (in the query, a JSON
+ * The error for a request to better-auth's endpoints that carries a NUL character (in the query, a JSON
  * body or a form body): PostgreSQL refuses NUL in text, and better-auth answers that with a 500.
- * @returns the problem to answer with, or null to pass the request on
+ * @returns the error to answer with, or null to pass the request on
  */
-export async function nulCharacterProblem(request: Request): Promise<Problem | null> {
-  const problem: Problem = {
-    type: `${PROBLEM_TYPE_BASE}invalid-input`,
-    title: "Invalid input",
-    status: 400,
-    detail: "The request contains a NUL character, which no field accepts.",
-  };
+export async function nulCharacterProblem(request: Request): Promise<DomainError | null> {
+  const problem = new BadRequestError("The request contains a NUL character, which no field accepts.", "Invalid input");
   const url = new URL(request.url);
   for (const [name, value] of url.searchParams) if (name.includes("\0") || value.includes("\0")) return problem;
   if (request.method === "GET" || request.method === "HEAD" || !request.body) return null;
