@@ -2,7 +2,7 @@
 
 import { useSyncExternalStore } from "react";
 import type * as Interactive from "./plots";
-import { P_TICKS, categoryTicks, linearAxis, type LinearAxis } from "./scales";
+import { P_TICKS, categoryTicks, linearAxis, tickText, type LinearAxis } from "./scales";
 import { StillPlot } from "./static-plot";
 
 // recharts stays out of the page's first load: the plots arrive in one chunk, asked for as soon as this
@@ -29,8 +29,8 @@ function usePlots(): Plots | null {
   );
 }
 
-const describe = (what: string, dates: readonly string[]) =>
-  dates.length === 0 ? `${what}: nothing to draw yet.` : `${what}, ${dates.length} days from ${dates[0]} to ${dates.at(-1)}. Show table lists every number.`;
+const describe = (what: string, labels: readonly string[], unit = "days") =>
+  labels.length === 0 ? `${what}: nothing to draw yet.` : `${what}, ${labels.length} ${unit} from ${labels[0]} to ${labels.at(-1)}. Show table lists every number.`;
 
 const ticksOf = (labels: readonly string[]) => {
   const chosen = new Set(categoryTicks(labels));
@@ -50,7 +50,7 @@ export function LiftPlot(props: LiftProps) {
       label={describe("Lift over time", dates)}
       points={data.length}
       xTicks={ticksOf(dates)}
-      y={{ ...y, format: (value) => value.toFixed(Math.min(digits, 1)), width: 56 }}
+      y={{ ...y, format: tickText.lift(digits), width: 56 }}
       band={{ low: data.map((point) => point.band?.[0] ?? null), high: data.map((point) => point.band?.[1] ?? null), colour: "--band", opacity: 0.75 }}
       lines={[
         { values: data.map((point) => point.ciLow), colour: "--outline", width: 1.3, dash: "4 3" },
@@ -75,7 +75,7 @@ export function PValuePlot(props: PValueProps) {
       label={describe("p-values over time", dates)}
       points={data.length}
       xTicks={ticksOf(dates)}
-      y={{ scale: "log", domain: [floor, 1], ticks: P_TICKS, format: (value) => (value >= 0.01 ? String(value) : value.toExponential(0)), width: 52 }}
+      y={{ scale: "log", domain: [floor, 1], ticks: P_TICKS, format: tickText.p, width: 52 }}
       lines={[
         { values: data.map((point) => point.naive), colour: "--holdout", width: 1.8, dash: "5 3" },
         { values: data.map((point) => point.sequential), colour: "--treatment", width: 2.2 },
@@ -96,10 +96,10 @@ export function PeekingCostPlot(props: PeekingProps) {
   if (plots) return <plots.PeekingCostPlot {...props} y={y} xTicks={categoryTicks(data.map((point) => point.look))} />;
   return (
     <StillPlot
-      label={describe("False-positive rate of daily naive tests by look", looks).replace("days", "looks")}
+      label={describe("False-positive rate of daily naive tests by look", looks, "looks")}
       points={data.length}
       xTicks={ticksOf(looks)}
-      y={{ ...y, format: (value) => `${Math.round(value * 100)} %`, width: 48 }}
+      y={{ ...y, format: tickText.share, width: 48 }}
       lines={[{ values: data.map((point) => point.cost), colour: "--holdout", width: 2 }]}
       references={[{ y: alpha, colour: "--alpha" }]}
     />
@@ -119,7 +119,7 @@ export function CountsPlot(props: CountsProps) {
       label={describe("Cumulative units per arm", dates)}
       points={data.length}
       xTicks={ticksOf(dates)}
-      y={{ ...y, format: (value) => (value >= 1000 ? `${Math.round(value / 1000)}k` : String(value)), width: 52 }}
+      y={{ ...y, format: tickText.count, width: 52 }}
       lines={lines.map((line) => ({ values: data.map((row) => row[line.key] as number | null), colour: line.colour, width: 2, dash: line.dash }))}
     />
   );

@@ -2,7 +2,7 @@
 
 import { Area, CartesianGrid, ComposedChart, Line, LineChart, ReferenceDot, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatCount, formatP, formatPercent } from "@/components/dashboard/format";
-import { P_TICKS, type LinearAxis } from "./scales";
+import { P_TICKS, tickText, type LinearAxis } from "./scales";
 
 // The drawing half of each chart: the only module that imports recharts, loaded in its own chunk (./lazy-plots).
 // Axes come computed (./scales) so they match the still drawing shown before this chunk runs.
@@ -24,7 +24,7 @@ export function LiftPlot({ data, mde, digits, text, y, xTicks }: { data: LiftPoi
       <ComposedChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
         <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} />
-        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tick={axisTick} stroke="var(--grid)" width={56} tickFormatter={(value: number) => value.toFixed(Math.min(digits, 1))} />
+        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tick={axisTick} stroke="var(--grid)" width={56} tickFormatter={tickText.lift(digits)} />
         <Tooltip
           contentStyle={{ background: "var(--tooltip-bg, #fff)", borderColor: "var(--grid)", fontSize: 12 }}
           formatter={(value, name) => [Array.isArray(value) ? `${text(value[0] as number)} to ${text(value[1] as number)}` : text(value as number), String(name)]}
@@ -65,7 +65,7 @@ export function PValuePlot({
           domain={[floor, 1]}
           allowDataOverflow
           ticks={P_TICKS}
-          tickFormatter={(value: number) => (value >= 0.01 ? String(value) : value.toExponential(0))}
+          tickFormatter={tickText.p}
           tick={axisTick}
           stroke="var(--grid)"
           width={52}
@@ -86,7 +86,7 @@ export function PeekingCostPlot({ data, alpha, y, xTicks }: { data: { look: numb
       <ComposedChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
         <XAxis dataKey="look" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} label={{ value: "looks", position: "insideBottomRight", offset: -2, fill: "var(--axis)", fontSize: 11 }} />
-        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tickFormatter={(value: number) => `${Math.round(value * 100)} %`} tick={axisTick} stroke="var(--grid)" width={48} />
+        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tickFormatter={tickText.share} tick={axisTick} stroke="var(--grid)" width={48} />
         <Tooltip formatter={(value) => [formatPercent(value as number, 2), "False-positive rate"]} labelFormatter={(label) => `Look ${label}`} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
         <ReferenceLine y={alpha} stroke="var(--alpha)" strokeDasharray="6 3" />
         <Line dataKey="cost" name="False-positive rate" stroke="var(--holdout)" strokeWidth={2} dot={false} isAnimationActive={false} />
@@ -111,7 +111,7 @@ export function CountsPlot({
       <LineChart data={data} margin={margin} accessibilityLayer={false}>
         <CartesianGrid stroke="var(--grid)" strokeDasharray="2 4" />
         <XAxis dataKey="date" tick={axisTick} stroke="var(--grid)" ticks={xTicks} interval={0} />
-        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tickFormatter={(value: number) => (value >= 1000 ? `${Math.round(value / 1000)}k` : String(value))} tick={axisTick} stroke="var(--grid)" width={52} />
+        <YAxis domain={y.domain} ticks={y.ticks} allowDataOverflow tickFormatter={tickText.count} tick={axisTick} stroke="var(--grid)" width={52} />
         <Tooltip formatter={(value, name) => [formatCount(value as number), String(name)]} contentStyle={{ borderColor: "var(--grid)", fontSize: 12 }} />
         {lines.map((line) => (
           <Line key={line.key} dataKey={line.key} name={line.name} stroke={`var(${line.colour})`} strokeDasharray={line.dash} strokeWidth={2} dot={false} isAnimationActive={false} />

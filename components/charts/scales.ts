@@ -48,3 +48,11 @@ export function axisFraction(value: number, domain: readonly [number, number], s
 
 /** The p-value axis' ticks (log scale). */
 export const P_TICKS = [1e-6, 1e-4, 0.01, 0.05, 1];
+
+/** Tick labels of each chart's y axis, the same in the still and the interactive plot. */
+export const tickText = {
+  lift: (digits: number) => (value: number) => value.toFixed(Math.min(digits, 1)),
+  p: (value: number) => (value >= 0.01 ? String(value) : value.toExponential(0)),
+  share: (value: number) => `${Math.round(value * 100)} %`,
+  count: (value: number) => (value >= 1000 ? `${Math.round(value / 1000)}k` : String(value)),
+};
