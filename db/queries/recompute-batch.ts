@@ -97,16 +97,6 @@ export async function lockAnalysisInputsBatch(tx: Transaction, client: PoolClien
   return found;
 }
 
-/**
- * One campaign's analysis days as COPY text (UTF-8, off the JavaScript heap until written), for
- * {@link replaceAnalysisDaysBatch}.
- */
-export function analysisDaysCopyChunk(days: readonly AnalysisDayColumns[]): Buffer {
-  let text = "";
-  for (const day of days) text += analysisDayLine(day);
-  return Buffer.from(text, "utf8");
-}
-
 /** Spare buffers of finished groups, so a pass reuses a few instead of leaving one per campaign to the collector. */
 const spareBuffers: Buffer[] = [];
 const SPARE_BUFFERS = 4;
@@ -154,7 +144,7 @@ function analysisDayLine(day: AnalysisDayColumns): string {
 
 /**
  * Replaces every analysis day of the given campaigns (inside the recompute transaction): one
- * delete and one COPY of their {@link analysisDaysCopyChunk} chunks for the whole group.
+ * delete and one COPY of their {@link AnalysisDaysCopyText} for the whole group.
  */
 export async function replaceAnalysisDaysBatch(client: PoolClient, campaignIds: string[], chunks: readonly Buffer[]): Promise<void> {
   if (campaignIds.length === 0) return;

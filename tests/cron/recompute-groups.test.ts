@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { recomputeCampaign, runRecompute } from "@/cron/recompute";
 import { getPool } from "@/db";
 import { listAnalysisDays } from "@/db/queries/analysis";
-import { analysisDaysCopyChunk } from "@/db/queries/recompute-batch";
+import { AnalysisDaysCopyText } from "@/db/queries/recompute-batch";
 import { conversionCounts, createBareWorkspace, createWorkerCampaign, putCounts } from "../helpers/worker-fixtures";
 
 /** A stored day without its row id and timestamps. */
@@ -55,7 +55,8 @@ describe("the recompute pass in groups of campaigns", () => {
   }, 120_000);
 
   it("writes COPY text with escaped backslashes, tabs and newlines, SQL null and infinite ends", () => {
-    const chunk = analysisDaysCopyChunk([
+    const text = new AnalysisDaysCopyText();
+    text.append([
       {
         campaignId: "c0ffee00-0000-4000-8000-000000000000",
         day: "2026-03-02",
@@ -66,7 +67,9 @@ describe("the recompute pass in groups of campaigns", () => {
         detailJson: "{}",
         inputsHash: "ab12",
       },
-    ]).toString("utf8");
+    ]);
+    const chunk = Buffer.concat(text.chunks()).toString("utf8");
+    text.release();
     expect(chunk).toBe(
       "c0ffee00-0000-4000-8000-000000000000\t2026-03-02\t2\tcollecting\t0.5\t\\N\t-Infinity\tInfinity\t1e-7\t\\N\t\\N\t\\N\t\\N\t\\N\t\\N\t0.0831" +
         '\t{"issues":[{"code":"x","message":"a\\\\\\\\b\\tc\\nd"}]}\t{}\tab12\n',
